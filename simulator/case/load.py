@@ -1,0 +1,596 @@
+"""Case files (TOML) -> validated :class:`~simulator.case.schema.Case` in SI.
+
+Every dimensional value is text with its unit, parsed with pint; a bare number
+in a dimensional field is an error. Every problem in a case is collected and
+reported at once, one line each, naming the field, the value as written and
+what is accepted.
+"""
+import difflib
+import math
+import tomllib
+from pathlib import Path
+
+from simulator.case.equation import parse_equation
+from simulator.case.schema import (
+    Adsorption, AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, PressureDrop,
+    Reaction, SolverOptions, Thermo, Tube,
+)
+from simulator.errors import CaseError, ThermoError, UnitError
+from simulator.thermo.species_data import near, resolve_species_file, species_in_file
+from simulator.units import parse_quantity
+
+NAN = float("nan")
+
+KEYS = {
+    "": {"title", "source", "description", "thermo", "reactions", "feed", "tube", "bed", "heat",
+         "pressure_drop", "design", "solver", "assumptions", "uncertainty"},
+    "thermo": {"species_file", "equation_of_state", "custom", "critical"},
+    "thermo.custom.*": {"molar_mass", "cp", "enthalpy_of_formation", "standard_entropy",
+                        "critical_temperature", "critical_pressure", "acentric_factor"},
+    "thermo.critical.*": {"critical_temperature", "critical_pressure", "acentric_factor"},
+    "reactions.*": {"equation", "rate_law", "pre_exponential", "activation_energy", "temperature_exponent",
+                    "orders", "driving_force", "per", "adsorption", "denominator_exponent"},
+    "reactions.*.adsorption.*": {"species", "pre_exponential", "heat_of_adsorption"},
+    "feed": {"temperature", "pressure", "molar_flow", "mass_flow", "volumetric_flow", "mole_fractions"},
+    "tube": {"length", "inner_diameter", "count", "roughness"},
+    "bed": {"particle_diameter", "void_fraction", "bulk_density"},
+    "heat": {"mode", "overall_coefficient", "coolant_temperature", "coolant_mass_flow", "coolant_cp"},
+    "pressure_drop": {"model", "viscosity", "friction_correlation"},
+    "design": {"key_species", "target_conversion", "temperature_limit", "max_pressure_drop"},
+    "solver": {"rtol", "atol_scale", "output_points", "max_step"},
+    "assumptions": {"isothermal", "isobaric", "ideal_gas", "constant_moles"},
+    "uncertainty.*": {"parameter", "distribution", "std", "factor", "low", "high"},
+}
+HEAT_MODES = ("isothermal", "adiabatic", "constant-coolant", "co-current")
+PRESSURE_MODELS = ("none", "ergun", "pipe-friction")
+FRICTION = ("churchill-1977", "colebrook-1939", "blasius-1913", "laminar")
+EOS = ("ideal-gas", "peng-robinson")
+
+
+class _Checker:
+    """Collects problems; every accessor returns a usable placeholder on error."""
+
+    def __init__(self, where):
+        self.where = where
+        self.problems = []
+
+    def fail(self, path, message):
+        self.problems.append(f"{self.where}{path}{message}")
+
+    def keys(self, table, allowed, path):
+        if not isinstance(table, dict):
+            self.fail(path, f": must be a table, got {table!r}")
+            return
+        for key in table:
+            if key not in allowed:
+                hint = difflib.get_close_matches(key, sorted(allowed), n=2)
+                suggestion = f"did you mean {', '.join(repr(h) for h in hint)}? " if hint else ""
+                self.fail(f"{path + '.' if path else ''}{key}",
+                          f": unknown key; {suggestion}accepted: {', '.join(sorted(allowed))}.")
+
+    def table(self, raw, key, path, required=True):
+        value = raw.get(key) if isinstance(raw, dict) else None
+        if value is None:
+            if required:
+                self.fail(path, ": missing table")
+            return {}
+        if not isinstance(value, dict):
+            self.fail(path, f" = {value!r}: must be a table")
+            return {}
+        return value
+
+    def quantity(self, table, key, dimension, path, required=True, minimum=None, strict=True):
+        if key not in table:
+            if required:
+                self.fail(f"{path}.{key}", ": missing")
+            return NAN
+        try:
+            value = parse_quantity(table[key], dimension, "")
+        except UnitError as err:
+            self.fail(f"{path}.{key}", str(err))
+            return NAN
+        if minimum is not None and (value <= minimum if strict else value < minimum):
+            rel = ">" if strict else ">="
+            self.fail(f"{path}.{key}", f" = {table[key]!r}: must be {rel} {minimum:g}.")
+            return NAN
+        return value
+
+    def number(self, table, key, path, default=NAN, lo=None, hi=None, lo_open=False, hi_open=False,
+               integer=False, required=False):
+        if key not in table:
+            if required:
+                self.fail(f"{path}.{key}", ": missing")
+            return default
+        value = table[key]
+        if isinstance(value, bool) or not isinstance(value, (int, float)):
+            kind = "a whole number" if integer else "a plain number (dimensionless)"
+            self.fail(f"{path}.{key}", f" = {value!r}: must be {kind}.")
+            return default
+        if integer and not isinstance(value, int):
+            self.fail(f"{path}.{key}", f" = {value!r}: must be a whole number.")
+            return default
+        bad = (lo is not None and (value <= lo if lo_open else value < lo)) or \
+              (hi is not None and (value >= hi if hi_open else value > hi))
+        if bad or not math.isfinite(value):
+            lo_s = "" if lo is None else f"{'>' if lo_open else '>='} {lo:g}"
+            hi_s = "" if hi is None else f"{'<' if hi_open else '<='} {hi:g}"
+            self.fail(f"{path}.{key}", f" = {value!r}: must be {' and '.join(s for s in (lo_s, hi_s) if s)}.")
+            return default
+        return value
+
+    def choice(self, table, key, path, choices, default=None):
+        if key not in table:
+            if default is None:
+                self.fail(f"{path}.{key}", f": missing; choose one of: {', '.join(choices)}.")
+            return default
+        value = table[key]
+        if value not in choices:
+            hint = difflib.get_close_matches(str(value), choices, n=1)
+            self.fail(f"{path}.{key}", f" = {value!r}: unknown; choose one of: {', '.join(choices)}."
+                      + (f" Did you mean {hint[0]!r}?" if hint else ""))
+            return default
+        return value
+
+
+def load_case(path):
+    """Read and validate a TOML case file.
+
+    Parameters
+    ----------
+    path : str or pathlib.Path
+        Case file.
+
+    Returns
+    -------
+    Case
+
+    Raises
+    ------
+    CaseError
+        Listing every problem found, one line each.
+    """
+    path = Path(path)
+    try:
+        text = path.read_text(encoding="utf-8")
+    except OSError as err:
+        raise CaseError(f"{path}: cannot read the case file ({err.strerror})") from err
+    try:
+        raw = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as err:
+        raise CaseError(f"{path}: not valid TOML: {err}") from err
+    return load_case_dict(raw, source_path=str(path))
+
+
+def load_case_dict(raw, source_path="", case_dir=None):
+    """Validate a case given as the dict a TOML parser returns.
+
+    Parameters
+    ----------
+    raw : dict
+        The case as written (values with units are text).
+    source_path : str
+        File the dict came from, for messages and relative paths.
+    case_dir : str, optional
+        Folder for relative species files; default the folder of ``source_path``.
+
+    Returns
+    -------
+    Case
+    """
+    where = f"{source_path}: " if source_path else ""
+    case_dir = case_dir or (str(Path(source_path).parent) if source_path else ".")
+    ck = _Checker(where)
+    ck.keys(raw, KEYS[""], "")
+
+    title = raw.get("title", "")
+    if not isinstance(title, str) or not title.strip():
+        ck.fail("title", f" = {title!r}: give a short title as text.")
+        title = str(title)
+
+    thermo = _thermo(ck, raw, case_dir)
+    reactions = _reactions(ck, raw)
+    feed = _feed(ck, raw)
+    tube = _tube(ck, raw)
+    bed = _bed(ck, raw)
+    heat = _heat(ck, raw)
+    pdrop = _pressure_drop(ck, raw, bed)
+    design = _design(ck, raw)
+    solver = _solver(ck, raw)
+    thresholds = _thresholds(ck, raw)
+    for i, entry in enumerate(raw.get("uncertainty", []) if isinstance(raw.get("uncertainty", []), list) else []):
+        ck.keys(entry, KEYS["uncertainty.*"], f"uncertainty.{i}")
+
+    if any(r.per == "catalyst-mass" for r in reactions) and bed is None:
+        ck.fail("reactions", ': a rate per "catalyst-mass" needs a [bed] table with bulk_density.')
+
+    species = _species_order(feed, reactions)
+    _check_species(ck, species, thermo, reactions, feed, design)
+
+    if ck.problems:
+        raise CaseError(ck.problems)
+    return Case(title=title.strip(), source_path=source_path, thermo=thermo, reactions=tuple(reactions),
+                feed=feed, tube=tube, heat=heat, pressure_drop=pdrop, design=design, bed=bed, solver=solver,
+                assumptions=thresholds, species=tuple(species), raw=raw, source=str(raw.get("source", "")))
+
+
+def _thermo(ck, raw, case_dir):
+    t = ck.table(raw, "thermo", "thermo", required=False)
+    ck.keys(t, KEYS["thermo"], "thermo")
+    eos = ck.choice(t, "equation_of_state", "thermo", EOS, default="ideal-gas")
+    species_file = t.get("species_file")
+    species_path = None
+    if species_file is not None:
+        if not isinstance(species_file, str):
+            ck.fail("thermo.species_file", f" = {species_file!r}: must be a file name as text.")
+        else:
+            species_path = resolve_species_file(species_file, case_dir)
+            if species_path is None:
+                ck.fail("thermo.species_file", f" = {species_file!r}: not found next to the case file "
+                        "nor among Cantera's bundled data files (e.g. gri30.yaml, nasa_gas.yaml).")
+    custom = []
+    for name, entry in (ck.table(t, "custom", "thermo.custom", required=False) or {}).items():
+        path = f"thermo.custom.{name}"
+        if not isinstance(entry, dict):
+            ck.fail(path, ": must be a table")
+            continue
+        ck.keys(entry, KEYS["thermo.custom.*"], path)
+        custom.append(CustomSpecies(
+            name=name,
+            molar_mass=ck.quantity(entry, "molar_mass", "molar_mass", path, minimum=0.0),
+            cp=ck.quantity(entry, "cp", "molar_heat_capacity", path, minimum=0.0),
+            enthalpy_of_formation=ck.quantity(entry, "enthalpy_of_formation", "molar_energy", path),
+            standard_entropy=ck.quantity(entry, "standard_entropy", "molar_entropy", path, required=False),
+            critical_temperature=ck.quantity(entry, "critical_temperature", "temperature", path,
+                                             required=False, minimum=0.0),
+            critical_pressure=ck.quantity(entry, "critical_pressure", "pressure", path, required=False,
+                                          minimum=0.0),
+            acentric_factor=ck.number(entry, "acentric_factor", path, lo=-1.0, hi=2.0),
+        ))
+    critical = []
+    for name, entry in (ck.table(t, "critical", "thermo.critical", required=False) or {}).items():
+        path = f"thermo.critical.{name}"
+        ck.keys(entry, KEYS["thermo.critical.*"], path)
+        if isinstance(entry, dict):
+            critical.append((name, ck.quantity(entry, "critical_temperature", "temperature", path, minimum=0.0),
+                             ck.quantity(entry, "critical_pressure", "pressure", path, minimum=0.0),
+                             ck.number(entry, "acentric_factor", path, lo=-1.0, hi=2.0, required=True)))
+    if species_file is None and not custom:
+        ck.fail("thermo", ": give species_file (a Cantera YAML file) or declare [thermo.custom.NAME] species.")
+    return Thermo(species_file=species_file, species_path=species_path, equation_of_state=eos,
+                  custom=tuple(custom), critical=tuple(critical))
+
+
+def _activity_unit(driving_force):
+    return "mol/m**3" if driving_force == "concentration" else "Pa"
+
+
+def _rate_unit(per):
+    return "mol/(m**3*s)" if per == "volume" else "mol/(kg*s)"
+
+
+def _reactions(ck, raw):
+    entries = raw.get("reactions")
+    if not isinstance(entries, list) or not entries:
+        ck.fail("reactions", ": give at least one [[reactions]] entry.")
+        return []
+    out = []
+    for j, r in enumerate(entries):
+        path = f"reactions.{j}"
+        if not isinstance(r, dict):
+            ck.fail(path, ": must be a table")
+            continue
+        ck.keys(r, KEYS["reactions.*"], path)
+        try:
+            stoich, reversible = parse_equation(r.get("equation"))
+        except ValueError as err:
+            ck.fail(f"{path}.equation", f" = {r.get('equation')!r}: {err}.")
+            continue
+        law = ck.choice(r, "rate_law", path, ("power-law", "lhhw"), default="power-law")
+        driving = ck.choice(r, "driving_force", path, ("concentration", "partial-pressure"),
+                            default="concentration")
+        per = ck.choice(r, "per", path, ("volume", "catalyst-mass"), default="volume")
+        orders_raw = r.get("orders")
+        if orders_raw is None:
+            orders = {s: -nu for s, nu in stoich.items() if nu < 0}
+        elif not isinstance(orders_raw, dict):
+            ck.fail(f"{path}.orders", f" = {orders_raw!r}: must be a table such as {{ A = 1 }}.")
+            orders = {}
+        else:
+            orders = {}
+            for s, o in orders_raw.items():
+                if isinstance(o, bool) or not isinstance(o, (int, float)) or not math.isfinite(o):
+                    ck.fail(f"{path}.orders.{s}", f" = {o!r}: must be a plain number.")
+                else:
+                    orders[s] = float(o)
+        n = sum(orders.values())
+        activity, rate = _activity_unit(driving), _rate_unit(per)
+        expected = f"({rate}) / ({activity})**({n!r})"
+        A = NAN
+        if "pre_exponential" not in r:
+            ck.fail(f"{path}.pre_exponential", ": missing")
+        else:
+            try:
+                A = parse_quantity(r["pre_exponential"], expected, "")
+            except UnitError as err:
+                si = _si_text(expected)
+                ck.fail(f"{path}.pre_exponential", f"{err}".split(": wrong dimension")[0] +
+                        (f": units do not match orders (sum {n:g}), driving force {driving!r} and rate per "
+                         f"{per!r}; expected units of {si}, e.g. \"... {si}\"."
+                         if "wrong dimension" in str(err) else ""))
+            if not (A >= 0):
+                if not math.isnan(A):
+                    ck.fail(f"{path}.pre_exponential", f" = {r['pre_exponential']!r}: must be >= 0.")
+        E = ck.quantity(r, "activation_energy", "molar_energy", path, required=True)
+        b = ck.number(r, "temperature_exponent", path, default=0.0, lo=-10, hi=10)
+        adsorption, n_den = (), 1.0
+        if law == "lhhw":
+            adsorption = _adsorption(ck, r, path, activity)
+            n_den = ck.number(r, "denominator_exponent", path, default=1.0, lo=0.0, hi=4.0)
+        elif "adsorption" in r or "denominator_exponent" in r:
+            ck.fail(path, ': adsorption terms need rate_law = "lhhw".')
+        if reversible:
+            for s, nu in stoich.items():
+                if nu < 0 and orders.get(s, 0.0) + nu < -1e-12:
+                    ck.fail(f"{path}.orders.{s}", f" = {orders.get(s, 0.0):g}: for a reversible reaction the "
+                            f"order of a reactant must be >= its coefficient ({-nu:g}) so that the reverse "
+                            "rate (forward rate x Q/K) stays finite.")
+        as_written = tuple((k, str(v)) for k, v in r.items() if k != "adsorption")
+        out.append(Reaction(equation=r.get("equation"), stoichiometry=tuple(stoich.items()),
+                            reversible=reversible, rate_law=law or "power-law", pre_exponential=A,
+                            activation_energy=E, temperature_exponent=b, orders=tuple(orders.items()),
+                            driving_force=driving or "concentration", per=per or "volume",
+                            adsorption=adsorption, denominator_exponent=n_den, as_written=as_written))
+    return out
+
+
+def _si_text(expression):
+    from simulator.units import registry
+
+    return f"{registry().Quantity(1, expression).to_base_units().units:~P}"
+
+
+def _adsorption(ck, r, path, activity):
+    terms = r.get("adsorption", [])
+    if not isinstance(terms, list) or not terms:
+        ck.fail(f"{path}.adsorption", ': rate_law = "lhhw" needs [[reactions.adsorption]] terms.')
+        return ()
+    out = []
+    for m, a in enumerate(terms):
+        p = f"{path}.adsorption.{m}"
+        ck.keys(a, KEYS["reactions.*.adsorption.*"], p)
+        exps = a.get("species") if isinstance(a, dict) else None
+        if not isinstance(exps, dict) or not exps:
+            ck.fail(f"{p}.species", ": must be a table of exponents such as { A = 1 }.")
+            continue
+        total = sum(float(v) for v in exps.values() if isinstance(v, (int, float)))
+        K0 = NAN
+        try:
+            K0 = parse_quantity(a.get("pre_exponential"), f"1/({activity})**({total!r})", "")
+        except UnitError as err:
+            ck.fail(f"{p}.pre_exponential", f"{err}; expected units of {_si_text(f'1/({activity})**({total!r})')}.")
+        dH = ck.quantity(a, "heat_of_adsorption", "molar_energy", p)
+        out.append(Adsorption(exponents=tuple((k, float(v)) for k, v in exps.items()),
+                              pre_exponential=K0, heat_of_adsorption=dH))
+    return tuple(out)
+
+
+def _feed(ck, raw):
+    f = ck.table(raw, "feed", "feed")
+    ck.keys(f, KEYS["feed"], "feed")
+    T = ck.quantity(f, "temperature", "temperature", "feed", minimum=0.0)
+    P = ck.quantity(f, "pressure", "pressure", "feed", minimum=0.0)
+    given = [k for k in ("molar_flow", "mass_flow", "volumetric_flow") if k in f]
+    kind, value = "molar_flow", NAN
+    if len(given) != 1:
+        ck.fail("feed", f": give exactly one of molar_flow, mass_flow, volumetric_flow (found "
+                f"{', '.join(given) or 'none'}).")
+    else:
+        kind = given[0]
+        value = ck.quantity(f, kind, kind, "feed", minimum=0.0)
+    x = f.get("mole_fractions")
+    fractions = []
+    if not isinstance(x, dict) or not x:
+        ck.fail("feed.mole_fractions", ": give a table such as { A = 0.7, N2 = 0.3 }.")
+    else:
+        ok = True
+        for s, v in x.items():
+            if isinstance(v, bool) or not isinstance(v, (int, float)) or not (0.0 <= v <= 1.0):
+                ck.fail(f"feed.mole_fractions.{s}", f" = {v!r}: must be a plain number between 0 and 1.")
+                ok = False
+            else:
+                fractions.append((s, float(v)))
+        total = sum(v for _, v in fractions)
+        if ok and abs(total - 1.0) > 1e-6:
+            ck.fail("feed.mole_fractions", f": sum to {total:.6g}; they must sum to 1 (within 1e-6).")
+        elif ok:
+            fractions = [(s, v / total) for s, v in fractions]
+    return Feed(temperature=T, pressure=P, mole_fractions=tuple(fractions), flow_kind=kind, flow_value=value)
+
+
+def _tube(ck, raw):
+    t = ck.table(raw, "tube", "tube")
+    ck.keys(t, KEYS["tube"], "tube")
+    return Tube(length=ck.quantity(t, "length", "length", "tube", minimum=0.0),
+                inner_diameter=ck.quantity(t, "inner_diameter", "length", "tube", minimum=0.0),
+                count=ck.number(t, "count", "tube", default=1, lo=1, integer=True),
+                roughness=ck.quantity(t, "roughness", "length", "tube", required=False, minimum=0.0,
+                                      strict=False) if "roughness" in t else 0.0)
+
+
+def _bed(ck, raw):
+    if "bed" not in raw:
+        return None
+    b = ck.table(raw, "bed", "bed")
+    ck.keys(b, KEYS["bed"], "bed")
+    return Bed(particle_diameter=ck.quantity(b, "particle_diameter", "length", "bed", minimum=0.0),
+               void_fraction=ck.number(b, "void_fraction", "bed", lo=0.0, hi=1.0, lo_open=True, hi_open=True,
+                                       required=True),
+               bulk_density=ck.quantity(b, "bulk_density", "density", "bed", minimum=0.0))
+
+
+def _heat(ck, raw):
+    h = ck.table(raw, "heat", "heat")
+    ck.keys(h, KEYS["heat"], "heat")
+    mode = ck.choice(h, "mode", "heat", HEAT_MODES)
+    U = Tc = mc = cpc = NAN
+    if mode in ("constant-coolant", "co-current"):
+        U = ck.quantity(h, "overall_coefficient", "heat_transfer_coefficient", "heat", minimum=0.0, strict=False)
+        Tc = ck.quantity(h, "coolant_temperature", "temperature", "heat", minimum=0.0)
+    if mode == "co-current":
+        mc = ck.quantity(h, "coolant_mass_flow", "mass_flow", "heat", minimum=0.0)
+        cpc = ck.quantity(h, "coolant_cp", "specific_heat_capacity", "heat", minimum=0.0)
+    if mode in ("isothermal", "adiabatic"):
+        extra = [k for k in ("overall_coefficient", "coolant_temperature", "coolant_mass_flow", "coolant_cp")
+                 if k in h]
+        if extra:
+            ck.fail("heat", f": {', '.join(extra)} given but mode = {mode!r} ignores them; remove them or "
+                    'choose mode = "constant-coolant" or "co-current".')
+    if mode == "constant-coolant" and ("coolant_mass_flow" in h or "coolant_cp" in h):
+        ck.fail("heat", ': coolant_mass_flow / coolant_cp need mode = "co-current".')
+    return Heat(mode=mode or "isothermal", overall_coefficient=0.0 if math.isnan(U) else U,
+                coolant_temperature=Tc, coolant_mass_flow=mc, coolant_cp=cpc)
+
+
+def _pressure_drop(ck, raw, bed):
+    p = ck.table(raw, "pressure_drop", "pressure_drop", required=False)
+    ck.keys(p, KEYS["pressure_drop"], "pressure_drop")
+    model = ck.choice(p, "model", "pressure_drop", PRESSURE_MODELS, default="none")
+    if model == "ergun" and bed is None:
+        ck.fail("pressure_drop.model", ' = "ergun": needs a [bed] table (particle_diameter, void_fraction, '
+                "bulk_density).")
+    if model == "pipe-friction" and bed is not None:
+        ck.fail("pressure_drop.model", ' = "pipe-friction": the case has a [bed]; use "ergun" for a packed tube.')
+    mu = ck.quantity(p, "viscosity", "viscosity", "pressure_drop", required=False, minimum=0.0)
+    corr = ck.choice(p, "friction_correlation", "pressure_drop", FRICTION, default="churchill-1977")
+    return PressureDrop(model=model, viscosity=mu, friction_correlation=corr or "churchill-1977")
+
+
+def _design(ck, raw):
+    d = ck.table(raw, "design", "design")
+    ck.keys(d, KEYS["design"], "design")
+    key = d.get("key_species")
+    if not isinstance(key, str):
+        ck.fail("design.key_species", f" = {key!r}: name the reactant whose conversion is tracked.")
+        key = ""
+    return Design(key_species=key,
+                  target_conversion=ck.number(d, "target_conversion", "design", lo=0.0, hi=1.0, lo_open=True,
+                                              hi_open=True),
+                  temperature_limit=ck.quantity(d, "temperature_limit", "temperature", "design", required=False,
+                                                minimum=0.0),
+                  max_pressure_drop=ck.quantity(d, "max_pressure_drop", "pressure", "design", required=False,
+                                                minimum=0.0))
+
+
+def _solver(ck, raw):
+    s = ck.table(raw, "solver", "solver", required=False)
+    ck.keys(s, KEYS["solver"], "solver")
+    return SolverOptions(
+        rtol=ck.number(s, "rtol", "solver", default=1e-8, lo=1e-13, hi=1e-3),
+        atol_scale=ck.number(s, "atol_scale", "solver", default=1e-10, lo=1e-15, hi=1e-3),
+        output_points=ck.number(s, "output_points", "solver", default=401, lo=11, hi=100001, integer=True),
+        max_step=ck.quantity(s, "max_step", "length", "solver", required=False, minimum=0.0)
+        if "max_step" in s else 0.0)
+
+
+def _thresholds(ck, raw):
+    a = ck.table(raw, "assumptions", "assumptions", required=False)
+    ck.keys(a, KEYS["assumptions"], "assumptions")
+    return AssumptionThresholds(
+        isothermal=ck.quantity(a, "isothermal", "temperature_difference", "assumptions", required=False,
+                               minimum=0.0),
+        isobaric=ck.number(a, "isobaric", "assumptions", default=0.10, lo=0.0, hi=1.0, lo_open=True),
+        ideal_gas=ck.number(a, "ideal_gas", "assumptions", default=0.05, lo=0.0, hi=1.0, lo_open=True),
+        constant_moles=ck.number(a, "constant_moles", "assumptions", default=0.05, lo=0.0, hi=1.0, lo_open=True))
+
+
+def _species_order(feed, reactions):
+    names = [s for s, _ in feed.mole_fractions]
+    for r in reactions:
+        for s, _ in r.stoichiometry:
+            if s not in names:
+                names.append(s)
+    return names
+
+
+def _check_species(ck, species, thermo, reactions, feed, design):
+    custom = {c.name for c in thermo.custom}
+    in_file = {}
+    if thermo.species_path:
+        try:
+            in_file = species_in_file(thermo.species_path)
+        except ThermoError as err:
+            ck.fail("thermo.species_file", f": {err}")
+    known = custom | set(in_file)
+    where_from = f"'{thermo.species_file}' or [thermo.custom]" if thermo.species_file else "[thermo.custom]"
+
+    def check(name, path):
+        if name in known:
+            return True
+        hint = near(name, known)
+        extra = f"; did you mean {', '.join(repr(h) for h in hint)}?" if hint else ""
+        if name[:1].isdigit():
+            extra += " Put a space between a coefficient and its species (\"2 B\")."
+        ck.fail(path, f": unknown species {name!r} (not in {where_from}){extra}")
+        return False
+
+    for s, _ in feed.mole_fractions:
+        check(s, f"feed.mole_fractions.{s}")
+    for j, r in enumerate(reactions):
+        ok = all([check(s, f"reactions.{j}.equation") for s, _ in r.stoichiometry])
+        for s, _ in r.orders:
+            if s not in {n for n, _ in r.stoichiometry} and s not in known:
+                check(s, f"reactions.{j}.orders.{s}")
+        for m, a in enumerate(r.adsorption):
+            for s, _ in a.exponents:
+                if s not in species:
+                    ck.fail(f"reactions.{j}.adsorption.{m}.species.{s}",
+                            f": {s!r} is neither in the feed nor in any reaction.")
+        for s, _ in r.orders:
+            if s not in species:
+                ck.fail(f"reactions.{j}.orders.{s}", f": {s!r} is neither in the feed nor in any reaction.")
+        if ok:
+            _check_balance(ck, j, r, thermo, in_file)
+            if r.reversible:
+                no_s = [s for s, _ in r.stoichiometry if s in custom and
+                        math.isnan(next(c for c in thermo.custom if c.name == s).standard_entropy)]
+                if no_s:
+                    ck.fail(f"reactions.{j}.equation", f": reversible, but custom species {', '.join(no_s)} "
+                            "have no standard_entropy; the equilibrium constant needs it "
+                            '(e.g. standard_entropy = "250 J/(mol*K)").')
+    key = design.key_species
+    if key:
+        feed_x = dict(feed.mole_fractions)
+        consumed = any(dict(r.stoichiometry).get(key, 0.0) < 0 for r in reactions)
+        if check(key, "design.key_species"):
+            if feed_x.get(key, 0.0) <= 0.0:
+                ck.fail("design.key_species", f" = {key!r}: must be in the feed with a mole fraction > 0.")
+            elif not consumed:
+                ck.fail("design.key_species", f" = {key!r}: is not a reactant of any reaction.")
+
+
+def _check_balance(ck, j, r, thermo, in_file):
+    custom = {c.name: c for c in thermo.custom}
+    mass, scale = 0.0, 0.0
+    elements = {}
+    all_real = True
+    for s, nu in r.stoichiometry:
+        if s in custom:
+            m = custom[s].molar_mass
+            all_real = False
+        else:
+            sp = in_file[s]
+            m = sp.molecular_weight / 1000.0
+            for e, n in sp.composition.items():
+                elements[e] = elements.get(e, 0.0) + nu * n
+        if not math.isnan(m):
+            mass += nu * m
+            scale += abs(nu * m)
+    if all_real:
+        bad = {e: v for e, v in elements.items() if abs(v) > 1e-9}
+        if bad:
+            detail = ", ".join(f"{e} {v:+g}" for e, v in bad.items())
+            ck.fail(f"reactions.{j}.equation", f" = {r.equation!r}: elements do not balance ({detail}).")
+            return
+    if scale > 0 and abs(mass) > 1e-6 * scale:
+        ck.fail(f"reactions.{j}.equation", f" = {r.equation!r}: mass does not balance (products - reactants = "
+                f"{mass * 1000:+.6g} g/mol of reaction); check coefficients and molar masses.")

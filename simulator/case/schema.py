@@ -1,0 +1,164 @@
+"""Frozen dataclasses that describe a validated case, in SI floats.
+
+A :class:`Case` is data only. It is built by :func:`simulator.case.load.load_case`
+from a TOML file (or a raw dict) after every field was parsed and checked.
+
+Nomenclature (units): lengths [m], temperatures [K], pressures [Pa, absolute],
+molar flows [mol/s], mass flows [kg/s], molar masses [kg/mol], heat capacities
+[J/(mol*K)], enthalpies [J/mol], heat-transfer coefficients [W/(m^2*K)].
+"""
+from dataclasses import dataclass, field
+from typing import Literal
+
+EquationOfState = Literal["ideal-gas", "peng-robinson"]
+HeatMode = Literal["isothermal", "adiabatic", "constant-coolant", "co-current"]
+PressureDropModel = Literal["none", "ergun", "pipe-friction"]
+DrivingForce = Literal["concentration", "partial-pressure"]
+RateBasis = Literal["volume", "catalyst-mass"]
+RateLawName = Literal["power-law", "lhhw"]
+
+NAN = float("nan")
+
+
+@dataclass(frozen=True)
+class CustomSpecies:
+    """A component not taken from a species file: constant heat capacity.
+
+    ``standard_entropy`` is needed only by reversible reactions (equilibrium
+    constants); critical constants only by the Peng-Robinson equation of state.
+    """
+
+    name: str
+    molar_mass: float            # [kg/mol]
+    cp: float                    # [J/(mol*K)]
+    enthalpy_of_formation: float  # [J/mol] at 298.15 K
+    standard_entropy: float = NAN  # [J/(mol*K)] at 298.15 K, 1 atm
+    critical_temperature: float = NAN  # [K]
+    critical_pressure: float = NAN     # [Pa]
+    acentric_factor: float = NAN       # [-]
+
+
+@dataclass(frozen=True)
+class Thermo:
+    species_file: str | None            # as written; resolved path or bundled name in ``species_path``
+    species_path: str | None            # file path, or a bundled Cantera data name
+    equation_of_state: EquationOfState
+    custom: tuple[CustomSpecies, ...] = ()
+    critical: tuple[tuple[str, float, float, float], ...] = ()  # (name, Tc [K], Pc [Pa], omega [-]) overrides
+
+
+@dataclass(frozen=True)
+class Adsorption:
+    """One adsorption term K_m(T) * prod(a_i^beta_i) of an LHHW denominator."""
+
+    exponents: tuple[tuple[str, float], ...]   # (species, beta)
+    pre_exponential: float                     # [activity^-sum(beta)], SI
+    heat_of_adsorption: float                  # [J/mol]; K = K0 exp(-dH_ads/(R T))
+
+
+@dataclass(frozen=True)
+class Reaction:
+    """One reaction with its rate law, parsed and in SI.
+
+    The rate is the rate of the reaction as written (per unit extent):
+    species i is produced at ``nu_i`` times it.
+    """
+
+    equation: str
+    stoichiometry: tuple[tuple[str, float], ...]   # (species, nu) with nu < 0 for reactants
+    reversible: bool
+    rate_law: RateLawName
+    pre_exponential: float          # SI units implied by orders, driving force and basis
+    activation_energy: float        # [J/mol]
+    temperature_exponent: float     # [-] k = A (T/1 K)^b exp(-E/(R T))
+    orders: tuple[tuple[str, float], ...]
+    driving_force: DrivingForce
+    per: RateBasis
+    adsorption: tuple[Adsorption, ...] = ()
+    denominator_exponent: float = 1.0
+    as_written: tuple[tuple[str, str], ...] = ()   # (key, text) for reports
+
+
+@dataclass(frozen=True)
+class Feed:
+    temperature: float               # [K]
+    pressure: float                  # [Pa]
+    mole_fractions: tuple[tuple[str, float], ...]
+    flow_kind: Literal["molar_flow", "mass_flow", "volumetric_flow"]
+    flow_value: float                # [mol/s] | [kg/s] | [m^3/s] at feed T and P, whole reactor
+
+
+@dataclass(frozen=True)
+class Tube:
+    length: float                    # [m]
+    inner_diameter: float            # [m]
+    count: int                       # [-]
+    roughness: float = 0.0           # [m]
+
+
+@dataclass(frozen=True)
+class Bed:
+    particle_diameter: float         # [m]
+    void_fraction: float             # [-]
+    bulk_density: float              # [kg/m^3] catalyst mass per bed volume
+
+
+@dataclass(frozen=True)
+class Heat:
+    mode: HeatMode
+    overall_coefficient: float = 0.0     # U [W/(m^2*K)] referred to the tube inner wall
+    coolant_temperature: float = NAN     # [K] (inlet temperature for co-current)
+    coolant_mass_flow: float = NAN       # [kg/s] whole bundle (co-current)
+    coolant_cp: float = NAN              # [J/(kg*K)] (co-current)
+
+
+@dataclass(frozen=True)
+class PressureDrop:
+    model: PressureDropModel
+    viscosity: float = NAN               # [Pa*s]; NaN -> from transport data
+    friction_correlation: str = "churchill-1977"
+
+
+@dataclass(frozen=True)
+class Design:
+    key_species: str
+    target_conversion: float = NAN       # [-]
+    temperature_limit: float = NAN       # [K]
+    max_pressure_drop: float = NAN       # [Pa]
+
+
+@dataclass(frozen=True)
+class SolverOptions:
+    rtol: float = 1e-8
+    atol_scale: float = 1e-10            # absolute tolerance relative to each variable's scale
+    output_points: int = 401
+    max_step: float = 0.0                # [m]; 0 -> automatic
+
+
+@dataclass(frozen=True)
+class AssumptionThresholds:
+    isothermal: float = NAN              # [K]; NaN -> 0.1 R T^2 / E
+    isobaric: float = 0.10               # [-] dP / P_feed
+    ideal_gas: float = 0.05              # [-] max |Z - 1|
+    constant_moles: float = 0.05         # [-] |epsilon|
+
+
+@dataclass(frozen=True)
+class Case:
+    """A validated case: everything in SI, nothing left to parse."""
+
+    title: str
+    source_path: str                     # case file path ("" for a dict)
+    thermo: Thermo
+    reactions: tuple[Reaction, ...]
+    feed: Feed
+    tube: Tube
+    heat: Heat
+    pressure_drop: PressureDrop
+    design: Design
+    bed: Bed | None = None
+    solver: SolverOptions = field(default_factory=SolverOptions)
+    assumptions: AssumptionThresholds = field(default_factory=AssumptionThresholds)
+    species: tuple[str, ...] = ()        # every species of the model, in a fixed order
+    raw: dict = field(default_factory=dict, compare=False, repr=False)  # the case as written
+    source: str = ""                     # source key of published data, if any

@@ -1,0 +1,97 @@
+"""Command line: ``tubesim VERB CASE [options]`` (also ``python -m simulator``).
+
+Subcommands are thin: they call the public API and print. Exit codes: 0 run
+completed or stopped by a design event, 1 numerical, thermo or report failure,
+2 bad case or usage. Errors are one line each on stderr; ``--debug`` shows the
+traceback.
+"""
+import argparse
+import sys
+
+EPILOG = """examples:
+  tubesim validate cases/decomposition_empty_tube.toml
+  tubesim run cases/decomposition_empty_tube.toml --out out/decomposition
+  python -m simulator run CASE --out DIR      (same as tubesim)
+
+Results are screening-level engineering estimates; see the report's cautions.
+"""
+
+
+def build_parser():
+    """The argparse parser of the ``tubesim`` command."""
+    parser = argparse.ArgumentParser(
+        prog="tubesim", description="Tubular and packed-bed reactor design and review.",
+        epilog=EPILOG, formatter_class=argparse.RawDescriptionHelpFormatter)
+    parser.add_argument("--debug", action="store_true", help="show tracebacks on errors")
+    parser.add_argument("--version", action="store_true", help="print the version and exit")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+
+    p = sub.add_parser("validate", help="load and check a case file only")
+    p.add_argument("case", help="case file (TOML)")
+
+    p = sub.add_parser("run", help="solve the tube balances; write summary.json and profile.csv")
+    p.add_argument("case", help="case file (TOML)")
+    p.add_argument("--out", required=True, help="output folder")
+    return parser
+
+
+def main(argv=None):
+    """Entry point of ``tubesim``; returns the exit code."""
+    parser = build_parser()
+    try:
+        args = parser.parse_args(argv)
+    except SystemExit as exc:  # argparse exits 2 on usage errors, 0 on --help
+        return int(exc.code or 0)
+    if args.version:
+        from simulator import __version__
+
+        print(f"tubesim {__version__}")
+        return 0
+    if not args.command:
+        parser.print_help()
+        return 2
+    from simulator.errors import CaseError, SimulatorError
+
+    try:
+        return COMMANDS[args.command](args)
+    except CaseError as err:
+        if args.debug:
+            raise
+        for line in err.problems:
+            print(f"error: {line}", file=sys.stderr)
+        return 2
+    except SimulatorError as err:
+        if args.debug:
+            raise
+        print(f"error: {err}", file=sys.stderr)
+        return 1
+    except KeyboardInterrupt:
+        print("interrupted", file=sys.stderr)
+        return 130
+
+
+def _validate(args):
+    from simulator.case.load import load_case
+
+    case = load_case(args.case)
+    print(f"{args.case}: valid ({len(case.species)} species, {len(case.reactions)} reactions, "
+          f"{case.tube.count} tubes, heat mode {case.heat.mode}, pressure drop {case.pressure_drop.model})")
+    return 0
+
+
+def _run(args):
+    from simulator.case.load import load_case
+    from simulator.output import print_summary, write_run
+    from simulator.solve.integrate import simulate
+
+    case = load_case(args.case)
+    result = simulate(case)
+    write_run(result, args.out)
+    print_summary(result)
+    if result.status == "failed":
+        print(f"error: {result.termination}", file=sys.stderr)
+        return 1
+    return 0
+
+
+COMMANDS = {"validate": _validate, "run": _run}

@@ -1,0 +1,165 @@
+"""Case + species data -> the packed arrays the compiled kernel integrates.
+
+This is the one place that turns a validated :class:`~simulator.case.schema.Case`
+into numbers per tube: feed split evenly over the tubes, mass velocity, viscosity
+law, rate-constant arrays and critical constants.
+"""
+from dataclasses import dataclass
+
+import numpy as np
+
+from simulator.errors import CaseError, ThermoError
+from simulator.model import kernel as K
+from simulator.thermo.critical import critical_constants
+from simulator.thermo.species_data import SpeciesData, build_species_data, mixture_viscosity
+from simulator.units import R
+
+HEAT_CODES = {"isothermal": K.HEAT_ISOTHERMAL, "adiabatic": K.HEAT_ADIABATIC,
+              "constant-coolant": K.HEAT_CONSTANT, "co-current": K.HEAT_COCURRENT}
+DP_CODES = {"none": K.DP_NONE, "ergun": K.DP_ERGUN, "pipe-friction": K.DP_PIPE}
+FRICTION_CODES = {"churchill-1977": 0, "colebrook-1939": 1, "blasius-1913": 2, "laminar": 3}
+
+
+@dataclass(frozen=True)
+class Model:
+    """Everything the integrator needs for one tube, plus the names to read it back.
+
+    ``args`` is the tuple of arrays passed to :func:`simulator.model.kernel.rhs`.
+    """
+
+    case: object
+    species: SpeciesData
+    args: tuple
+    y0: np.ndarray
+    scale: np.ndarray          # typical magnitude of each state variable (for atol)
+    key_index: int
+    count: int
+    area: float                # [m^2] cross-section of one tube
+    feed_molar_flow: float     # [mol/s] whole reactor
+    viscosity_note: str
+    critical_sources: tuple    # where each species' critical constants came from (or "")
+
+    @property
+    def n(self):
+        return len(self.species.names)
+
+
+def feed_molar_flow(case, species):
+    """Total feed molar flow of the whole reactor from the case's flow spec, [mol/s]."""
+    x = np.array([dict(case.feed.mole_fractions).get(s, 0.0) for s in species.names])
+    kind, value = case.feed.flow_kind, case.feed.flow_value
+    if kind == "molar_flow":
+        return value
+    if kind == "mass_flow":
+        return value / float(x @ species.molar_mass)
+    # volumetric flow at feed T and P with the case's equation of state
+    Z = 1.0
+    if case.thermo.equation_of_state == "peng-robinson":
+        crit, _ = critical_constants(case, species)
+        Z = K.pr_departure(case.feed.temperature, case.feed.pressure, x, crit)[0]
+    return value * case.feed.pressure / (Z * R * case.feed.temperature)
+
+
+def build_model(case, species=None):
+    """Pack a validated case into kernel arrays.
+
+    Parameters
+    ----------
+    case : simulator.case.schema.Case
+    species : SpeciesData, optional
+        Reuse already loaded species data (sweeps).
+
+    Returns
+    -------
+    Model
+    """
+    species = species or build_species_data(case.species, case.thermo)
+    names = species.names
+    n, m = len(names), len(case.reactions)
+    index = {s: i for i, s in enumerate(names)}
+    tube = case.tube
+    area = np.pi * tube.inner_diameter ** 2 / 4.0
+    F_total = feed_molar_flow(case, species)
+    x0 = np.array([dict(case.feed.mole_fractions).get(s, 0.0) for s in names])
+    F0 = x0 * F_total / tube.count
+
+    nu = np.zeros((n, m))
+    ordr = np.zeros((n, m))
+    rexp = np.zeros((n, m))
+    rx = np.zeros((m, K.N_RX))
+    kmax = max([len(r.adsorption) for r in case.reactions] + [1])
+    ads = np.zeros((m, kmax, 2 + n))
+    for j, r in enumerate(case.reactions):
+        for s, v in r.stoichiometry:
+            nu[index[s], j] = v
+        for s, o in r.orders:
+            ordr[index[s], j] = o
+        rexp[:, j] = ordr[:, j] + nu[:, j] if r.reversible else 0.0
+        basis = case.bed.bulk_density if r.per == "catalyst-mass" else 1.0
+        rx[j] = [r.pre_exponential, r.temperature_exponent, r.activation_energy,
+                 1.0 if r.driving_force == "partial-pressure" else 0.0, basis,
+                 1.0 if r.reversible else 0.0, nu[:, j].sum(), r.denominator_exponent, len(r.adsorption)]
+        for t, a in enumerate(r.adsorption):
+            ads[j, t, 0] = a.pre_exponential
+            ads[j, t, 1] = a.heat_of_adsorption
+            for s, e in a.exponents:
+                ads[j, t, 2 + index[s]] = e
+
+    crit, crit_sources = critical_constants(case, species)
+    eos = K.EOS_PR if case.thermo.equation_of_state == "peng-robinson" else K.EOS_IDEAL
+    if eos == K.EOS_PR:
+        missing = [s for s, src in zip(names, crit_sources) if not src]
+        if missing:
+            raise CaseError(f"{case.source_path}: thermo.equation_of_state = \"peng-robinson\": no critical "
+                            f"constants for {', '.join(missing)}; give them under [thermo.critical.NAME] "
+                            "(critical_temperature, critical_pressure, acentric_factor).")
+
+    heat = case.heat
+    fp = np.zeros(K.N_FP)
+    fp[K.F_AREA] = area
+    fp[K.F_DIAM] = tube.inner_diameter
+    fp[K.F_U] = heat.overall_coefficient
+    fp[K.F_TC] = heat.coolant_temperature
+    fp[K.F_MCP] = heat.coolant_mass_flow * heat.coolant_cp / tube.count if heat.mode == "co-current" else 1.0
+    fp[K.F_ROUGH] = tube.roughness
+    fp[K.F_G] = float(F0 @ species.molar_mass) / area
+    fp[K.F_PMIN] = 1e-3 * case.feed.pressure
+    fp[K.F_T0] = case.feed.temperature
+    fp[K.F_P0] = case.feed.pressure
+    if case.bed is not None:
+        fp[K.F_RHOB] = case.bed.bulk_density
+        fp[K.F_EPS] = case.bed.void_fraction
+        fp[K.F_DP] = case.bed.particle_diameter
+    note = ""
+    fp[K.F_MUT0] = case.feed.temperature
+    fp[K.F_MU0] = 1.0
+    if case.pressure_drop.model != "none":
+        fp[K.F_MU0], fp[K.F_MUEXP], note = _viscosity_law(case, species, x0)
+
+    ip = np.array([n, m, HEAT_CODES[heat.mode], DP_CODES[case.pressure_drop.model],
+                   FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax], dtype=np.int64)
+    Tc0 = heat.coolant_temperature if heat.mode in ("constant-coolant", "co-current") else case.feed.temperature
+    y0 = np.concatenate([F0, [case.feed.temperature, case.feed.pressure, Tc0, 0.0]])
+    Ft0 = F0.sum()
+    cp_scale = Ft0 * 30.0 * max(case.feed.temperature, 300.0)
+    scale = np.concatenate([np.full(n, Ft0), [case.feed.temperature, case.feed.pressure, max(Tc0, 1.0),
+                                              cp_scale]])
+    args = (ip, fp, np.ascontiguousarray(species.nasa7), species.molar_mass.copy(), nu, ordr, rexp, rx, ads, crit)
+    return Model(case=case, species=species, args=args, y0=y0, scale=scale,
+                 key_index=index[case.design.key_species], count=tube.count, area=area,
+                 feed_molar_flow=F_total, viscosity_note=note, critical_sources=tuple(crit_sources))
+
+
+def _viscosity_law(case, species, x0):
+    """(mu0 [Pa*s], exponent [-], note) of mu = mu0 (T/T_feed)^a."""
+    if not np.isnan(case.pressure_drop.viscosity):
+        return case.pressure_drop.viscosity, 0.0, "given in the case (constant)"
+    T0, P0 = case.feed.temperature, case.feed.pressure
+    try:
+        mu0 = mixture_viscosity(species, case.thermo, T0, P0, x0)
+        mu1 = mixture_viscosity(species, case.thermo, T0 + 100.0, P0, x0)
+    except ThermoError as err:
+        raise CaseError(f"{case.source_path}: pressure_drop.viscosity: {err}") from err
+    exponent = float(np.log(mu1 / mu0) / np.log((T0 + 100.0) / T0))
+    return mu0, exponent, (f"Cantera mixture-averaged transport at the feed composition: "
+                           f"{mu0:.4g} Pa*s at {T0:.1f} K, scaled as (T/T_feed)^{exponent:.3f}")

@@ -1,0 +1,355 @@
+"""Compiled right-hand side of the tube balances (numba, ``cache=True``).
+
+One generic kernel serves every case: the case is packed into plain arrays by
+:mod:`simulator.model.build`, so the compiled code is cached once on disk and
+reused by every later run and sweep. The kernel never calls Cantera; it
+evaluates cached NASA-7 rows (:mod:`simulator.thermo.nasa7`).
+
+State vector of one tube (see :mod:`simulator.model.state`)::
+
+    y = [F_1 .. F_n, T, P, Tc, Q]
+    F_i  molar flow of species i [mol/s]        T   gas temperature [K]
+    P    pressure [Pa]                           Tc  coolant temperature [K]
+    Q    heat added through the wall so far [W] (negative = removed)
+
+Balances (z = axial position [m], A_c = pi D^2/4)::
+
+    dF_i/dz = A_c * sum_j nu_ij * r_j * basis_j
+    dT/dz   = (U pi D (Tc - T) - sum_i H_i dF_i/dz - dH/dP dP/dz) / (dH/dT)
+    dP/dz   = Ergun (packed bed) | -f G^2 / (2 D rho) (empty tube) | 0
+    dTc/dz  = U pi D (T - Tc) / (m_c cp_c / N_tubes)        (co-current only)
+    dQ/dz   = U pi D (Tc - T)      (isothermal: the duty that holds T constant)
+
+Here H = sum_i F_i h_i^ig(T) + F_T h^dep(T, P, y) is the enthalpy flow; the
+departure h^dep is zero for an ideal gas and from Peng-Robinson otherwise.
+"""
+import math
+
+import numpy as np
+from numba import njit
+
+from simulator.model.pressure_drop import churchill_1977, blasius_1913, colebrook_1939, friction_laminar
+from simulator.thermo.nasa7 import cp_R, h_RT, s_R
+from simulator.units import P_STANDARD, R
+
+_cp_R = njit(cache=True)(cp_R)
+_h_RT = njit(cache=True)(h_RT)
+_s_R = njit(cache=True)(s_R)
+_churchill = njit(cache=True)(churchill_1977)
+_blasius = njit(cache=True)(blasius_1913)
+_colebrook = njit(cache=True)(colebrook_1939)
+_laminar = njit(cache=True)(friction_laminar)
+
+# integer parameters ip[...]
+I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX = range(7)
+HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_CONSTANT, HEAT_COCURRENT = range(4)
+DP_NONE, DP_ERGUN, DP_PIPE = range(3)
+EOS_IDEAL, EOS_PR = range(2)
+# float parameters fp[...]
+(F_AREA, F_DIAM, F_U, F_TC, F_MCP, F_RHOB, F_EPS, F_DP, F_MU0, F_MUEXP, F_MUT0, F_ROUGH, F_G,
+ F_PMIN, F_T0, F_P0) = range(16)
+N_FP = 16
+# reaction columns rx[j, ...]
+X_A, X_B, X_E, X_ACT, X_BASIS, X_REV, X_DN, X_NDEN, X_NADS = range(9)
+N_RX = 9
+
+
+@njit(cache=True)
+def pr_departure(T, P, x, crit):
+    """Peng-Robinson compressibility Z and enthalpy departure of a mixture.
+
+    Parameters
+    ----------
+    T : float
+        Temperature, [K]
+    P : float
+        Pressure, [Pa]
+    x : ndarray
+        Mole fractions, [-]
+    crit : ndarray
+        (n, 3) rows of critical temperature [K], critical pressure [Pa], acentric factor [-]
+
+    Returns
+    -------
+    Z : float
+        Compressibility factor of the vapour root, [-]
+    h_dep : float
+        Molar enthalpy departure h - h_ig, [J/mol]
+
+    Notes
+    -----
+    Peng-Robinson with kappa from the 1976 paper for omega <= 0.491 and the
+    1978 extension above it (as Cantera does); zero binary interaction
+    parameters; the largest real root of the cubic (vapour).
+
+    References
+    ----------
+    .. [1] D.-Y. Peng, D.B. Robinson, "A new two-constant equation of state,"
+       Ind. Eng. Chem. Fundam., vol. 15, pp. 59-64, 1976.
+    """
+    n = x.shape[0]
+    am = 0.0
+    dam = 0.0  # d(a_mix)/dT
+    bm = 0.0
+    ai = np.empty(n)
+    dai = np.empty(n)
+    for i in range(n):
+        Tc = crit[i, 0]
+        Pc = crit[i, 1]
+        w = crit[i, 2]
+        if w <= 0.491:
+            kap = 0.37464 + 1.54226 * w - 0.26992 * w * w
+        else:
+            kap = 0.379642 + 1.48503 * w - 0.164423 * w * w + 0.016666 * w * w * w
+        a0 = 0.45724 * R * R * Tc * Tc / Pc
+        sq = 1.0 + kap * (1.0 - math.sqrt(T / Tc))
+        ai[i] = a0 * sq * sq
+        dai[i] = -a0 * sq * kap / math.sqrt(T * Tc)
+        bm += x[i] * 0.07780 * R * Tc / Pc
+    for i in range(n):
+        for k in range(n):
+            s = math.sqrt(ai[i] * ai[k])
+            am += x[i] * x[k] * s
+            dam += x[i] * x[k] * 0.5 * (ai[i] * dai[k] + ai[k] * dai[i]) / s
+    A = am * P / (R * T) ** 2
+    B = bm * P / (R * T)
+    # Z^3 + c2 Z^2 + c1 Z + c0 = 0
+    c2 = -(1.0 - B)
+    c1 = A - 3.0 * B * B - 2.0 * B
+    c0 = -(A * B - B * B - B * B * B)
+    Z = 1.0
+    for _ in range(100):  # Newton from the ideal-gas side converges to the largest root
+        f = ((Z + c2) * Z + c1) * Z + c0
+        df = (3.0 * Z + 2.0 * c2) * Z + c1
+        step = f / df
+        Z -= step
+        if abs(step) < 1e-14:
+            break
+    s2 = math.sqrt(2.0)
+    h_dep = R * T * (Z - 1.0) + (T * dam - am) / (2.0 * s2 * bm) * math.log(
+        (Z + (1.0 + s2) * B) / (Z + (1.0 - s2) * B))
+    return Z, h_dep
+
+
+@njit(cache=True)
+def compressibility(T, P, x, ip, crit):
+    """Z of the mixture (1 for an ideal gas), [-]."""
+    if ip[I_EOS] == EOS_PR:
+        return pr_departure(T, P, x, crit)[0]
+    return 1.0
+
+
+@njit(cache=True)
+def enthalpy_flow(F, T, P, nasa, ip, crit):
+    """Total enthalpy flow H of a stream, [W] (J/s)."""
+    n = F.shape[0]
+    H = 0.0
+    Ft = 0.0
+    for i in range(n):
+        H += F[i] * _h_RT(nasa[i], T) * R * T
+        Ft += F[i]
+    if ip[I_EOS] == EOS_PR and Ft > 0.0:
+        x = np.empty(n)
+        for i in range(n):
+            x[i] = max(F[i], 0.0) / Ft
+        H += Ft * pr_departure(T, P, x, crit)[1]
+    return H
+
+
+@njit(cache=True)
+def reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, out):
+    """Rates of all reactions per unit reactor volume, [mol/(m^3*s)], written to ``out``.
+
+    Returns the compressibility factor Z used for the concentrations.
+    """
+    n = ip[I_N]
+    m = ip[I_M]
+    Ft = 0.0
+    for i in range(n):
+        Ft += max(F[i], 0.0)
+    x = np.empty(n)
+    for i in range(n):
+        x[i] = max(F[i], 0.0) / Ft
+    Z = compressibility(T, P, x, ip, crit)
+    ctot = P / (Z * R * T)
+    g = np.empty(n)  # h/RT - s/R, for equilibrium constants
+    have_g = False
+    for j in range(m):
+        act_is_p = rx[j, X_ACT] > 0.5
+        k = rx[j, X_A] * math.exp(-rx[j, X_E] / (R * T))
+        if rx[j, X_B] != 0.0:
+            k *= T ** rx[j, X_B]
+        fwd = k
+        rev = 0.0
+        for i in range(n):
+            a = x[i] * (P if act_is_p else ctot)
+            o = ordr[i, j]
+            if o != 0.0:
+                fwd *= a ** o
+        if rx[j, X_REV] > 0.5:
+            if not have_g:
+                for i in range(n):
+                    g[i] = _h_RT(nasa[i], T) - _s_R(nasa[i], T)
+                have_g = True
+            dG_RT = 0.0
+            for i in range(n):
+                dG_RT += nu[i, j] * g[i]
+            # K in the activity basis: K0 * (P0/(R T))^dn for concentrations, K0 * P0^dn for pressures
+            ref = P_STANDARD if act_is_p else P_STANDARD / (R * T)
+            lnK = -dG_RT + rx[j, X_DN] * math.log(ref)
+            rev = k * math.exp(-lnK)
+            for i in range(n):
+                e = rexp[i, j]
+                if e != 0.0:
+                    rev *= (x[i] * (P if act_is_p else ctot)) ** e
+        r = fwd - rev
+        nads = int(rx[j, X_NADS])
+        if nads > 0:
+            den = 1.0
+            for t in range(nads):
+                term = ads[j, t, 0] * math.exp(-ads[j, t, 1] / (R * T))
+                for i in range(n):
+                    e = ads[j, t, 2 + i]
+                    if e != 0.0:
+                        term *= (x[i] * (P if act_is_p else ctot)) ** e
+                den += term
+            r /= den ** rx[j, X_NDEN]
+        out[j] = r * rx[j, X_BASIS]
+    return Z
+
+
+@njit(cache=True)
+def viscosity(T, fp):
+    """Gas viscosity mu0 (T/T0)^a, [Pa*s]."""
+    return fp[F_MU0] * (T / fp[F_MUT0]) ** fp[F_MUEXP]
+
+
+@njit(cache=True)
+def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
+    """Right-hand side of one tube, written into ``dydz`` (see the module docstring)."""
+    n = ip[I_N]
+    m = ip[I_M]
+    F = y[:n]
+    T = y[n]
+    P = max(y[n + 1], fp[F_PMIN])
+    Tc = y[n + 2]
+    r = np.empty(m)
+    Z = reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, r)
+    area = fp[F_AREA]
+    for i in range(n):
+        s = 0.0
+        for j in range(m):
+            s += nu[i, j] * r[j]
+        dydz[i] = area * s
+    heat = ip[I_HEAT]
+    if heat == HEAT_CONSTANT or heat == HEAT_COCURRENT:
+        qw = fp[F_U] * math.pi * fp[F_DIAM] * (Tc - T)
+    else:
+        qw = 0.0
+    # pressure gradient
+    dP = 0.0
+    if ip[I_DP] != DP_NONE:
+        Ft = 0.0
+        mass = 0.0
+        for i in range(n):
+            Fi = max(F[i], 0.0)
+            Ft += Fi
+            mass += Fi * mw[i]
+        rho = P * (mass / Ft) / (Z * R * T)
+        G = fp[F_G]
+        mu = viscosity(T, fp)
+        if ip[I_DP] == DP_ERGUN:
+            eps = fp[F_EPS]
+            dp = fp[F_DP]
+            u = G / rho
+            dP = -(150.0 * mu * (1.0 - eps) ** 2 * u / (eps ** 3 * dp * dp)
+                   + 1.75 * rho * (1.0 - eps) * u * u / (eps ** 3 * dp))
+        else:
+            D = fp[F_DIAM]
+            Re = G * D / mu
+            code = ip[I_FRICTION]
+            if code == 0:
+                f = _churchill(Re, fp[F_ROUGH] / D)
+            elif code == 1:
+                f = _colebrook(Re, fp[F_ROUGH] / D)
+            elif code == 2:
+                f = _blasius(Re)
+            else:
+                f = _laminar(Re)
+            dP = -f * G * G / (2.0 * D * rho)
+    dydz[n + 1] = dP
+    # energy
+    if heat == HEAT_ISOTHERMAL:
+        dydz[n] = 0.0
+        duty = 0.0
+        for i in range(n):
+            duty += _h_RT(nasa[i], T) * R * T * dydz[i]
+        if ip[I_EOS] == EOS_PR:
+            duty += _dH_dF_dep(F, T, P, nasa, ip, crit, dydz) + _dH_dP(F, T, P, nasa, ip, crit) * dP
+        dydz[n + 3] = duty
+    else:
+        cpt = 0.0
+        hdF = 0.0
+        for i in range(n):
+            cpt += F[i] * _cp_R(nasa[i], T) * R
+            hdF += _h_RT(nasa[i], T) * R * T * dydz[i]
+        extra = 0.0
+        if ip[I_EOS] == EOS_PR:
+            dT = 1e-4 * T
+            Hp = enthalpy_flow(F, T + dT, P, nasa, ip, crit)
+            Hm = enthalpy_flow(F, T - dT, P, nasa, ip, crit)
+            cpt = (Hp - Hm) / (2.0 * dT)
+            extra = _dH_dF_dep(F, T, P, nasa, ip, crit, dydz) + _dH_dP(F, T, P, nasa, ip, crit) * dP
+        dydz[n] = (qw - hdF - extra) / cpt
+        dydz[n + 3] = qw
+    if heat == HEAT_COCURRENT:
+        dydz[n + 2] = -qw / fp[F_MCP]
+    else:
+        dydz[n + 2] = 0.0
+
+
+@njit(cache=True)
+def _dH_dF_dep(F, T, P, nasa, ip, crit, dF):
+    """Departure part of sum_i (dH/dF_i) dF_i/dz by a directional difference, [W/m]."""
+    n = F.shape[0]
+    norm = 0.0
+    Ft = 0.0
+    for i in range(n):
+        norm += abs(dF[i])
+        Ft += abs(F[i])
+    if norm == 0.0:
+        return 0.0
+    h = 1e-6 * Ft / norm
+    Fp = np.empty(n)
+    Fm = np.empty(n)
+    for i in range(n):
+        Fp[i] = F[i] + h * dF[i]
+        Fm[i] = F[i] - h * dF[i]
+    total = (_dep_flow(Fp, T, P, crit) - _dep_flow(Fm, T, P, crit)) / (2.0 * h)
+    return total
+
+
+@njit(cache=True)
+def _dep_flow(F, T, P, crit):
+    n = F.shape[0]
+    Ft = 0.0
+    for i in range(n):
+        Ft += max(F[i], 0.0)
+    x = np.empty(n)
+    for i in range(n):
+        x[i] = max(F[i], 0.0) / Ft
+    return Ft * pr_departure(T, P, x, crit)[1]
+
+
+@njit(cache=True)
+def _dH_dP(F, T, P, nasa, ip, crit):
+    dP = 1e-5 * P
+    return (_dep_flow(F, T, P + dP, crit) - _dep_flow(F, T, P - dP, crit)) / (2.0 * dP)
+
+
+@njit(cache=True)
+def rhs_odeint(y, z, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit):
+    """``odeint`` calling convention: returns a new array dy/dz."""
+    out = np.empty(y.shape[0])
+    rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, out)
+    return out

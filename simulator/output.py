@@ -1,0 +1,57 @@
+"""Write a run's files (summary.json, profile.csv) atomically and print its table."""
+import csv
+import io
+from pathlib import Path
+
+from simulator.fileio import atomic_write_json, atomic_write_text
+
+
+def write_run(result, out_dir):
+    """Write ``summary.json`` and ``profile.csv`` of a result into ``out_dir``; returns the paths."""
+    out = Path(out_dir)
+    header, rows = result.profile_table()
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\n")
+    writer.writerow(header)
+    for row in rows:
+        writer.writerow([_fmt(v) for v in row])
+    paths = [atomic_write_json(out / "summary.json", result.summary()),
+             atomic_write_text(out / "profile.csv", buffer.getvalue())]
+    return paths
+
+
+def _fmt(value):
+    value = float(value)
+    return "" if value != value else repr(value)
+
+
+def print_summary(result, stream=None):
+    """Print the short result table a user reads first."""
+    import sys
+
+    s = result.summary()
+    stream = stream or sys.stdout
+    o, h, d = s["outlet"], s["hot_spot"], s["design"]
+    lines = [
+        f"{s['title']}",
+        f"  status            {s['status']}: {s['termination']}",
+        f"  outlet            X({s['key_species']}) = {o['conversion']:.4f}   T = {o['temperature_K']:.2f} K"
+        f"   P = {o['pressure_Pa'] / 1e5:.4f} bar   (z = {o['position_m']:.4g} m)",
+        f"  hot spot          {h['temperature_K']:.2f} K at z = {h['position_m']:.4g} m "
+        f"({h['rise_above_feed_K']:+.2f} K above feed; {h['located_by']})",
+    ]
+    if d["target_conversion"] is not None:
+        if d["reached"]:
+            extra = f", catalyst {d['catalyst_mass_kg']:.4g} kg" if d["catalyst_mass_kg"] is not None else ""
+            lines.append(f"  target X = {d['target_conversion']:.4g}    reached at L = {d['length_m']:.4g} m, "
+                         f"V = {d['volume_m3']:.4g} m3 (all tubes){extra}")
+        else:
+            lines.append(f"  target X = {d['target_conversion']:.4g}    not reached in this tube")
+    rise = s["adiabatic_temperature_rise_K"]
+    if rise is not None:
+        lines.append(f"  adiabatic rise    {rise:+.1f} K (complete conversion of {s['key_species']})")
+    c = s["closure"]
+    lines.append(f"  closure           elements {c['elements_relative']:.1e}, energy {c['energy_relative']:.1e}")
+    for w in s["warnings"]:
+        lines.append(f"  warning: {w}")
+    print("\n".join(lines), file=stream)

@@ -1,0 +1,131 @@
+"""Result of one tube simulation: data only (no plotting, saving or reporting).
+
+All arrays are SI and refer to the whole reactor (all tubes) unless a name says
+"per tube". :meth:`Result.summary` is exactly what ``summary.json`` holds.
+"""
+import math
+from dataclasses import dataclass, field
+
+import numpy as np
+
+
+def _num(value):
+    """JSON-safe float: NaN/inf -> None."""
+    if value is None:
+        return None
+    value = float(value)
+    return value if math.isfinite(value) else None
+
+
+@dataclass(frozen=True)
+class Result:
+    """Axial profiles and design numbers of one run.
+
+    Attributes
+    ----------
+    z : ndarray, axial position [m]
+    F : ndarray (N, n), molar flows of the whole reactor [mol/s]
+    T, P, Tc : ndarray, gas temperature [K], pressure [Pa], coolant temperature [K]
+    Q : ndarray, heat added through the walls of all tubes up to z [W] (negative = removed)
+    Z : ndarray, compressibility factor (NaN where critical data are missing) [-]
+    status : "completed" | "stopped" | "failed"
+    """
+
+    case: object
+    species: tuple
+    z: np.ndarray
+    F: np.ndarray
+    T: np.ndarray
+    P: np.ndarray
+    Tc: np.ndarray
+    Q: np.ndarray
+    Z: np.ndarray
+    status: str
+    termination: str
+    hot_spot: dict
+    design: dict
+    closure: dict
+    warnings: tuple
+    solver_stats: dict
+    versions: dict
+    references: tuple
+    events: dict = field(default_factory=dict)
+    adiabatic_temperature_rise: float = float("nan")   # [K]
+    extra: dict = field(default_factory=dict)
+
+    @property
+    def key_species(self):
+        return self.case.design.key_species
+
+    @property
+    def key_index(self):
+        return self.species.index(self.key_species)
+
+    @property
+    def conversion(self):
+        """Conversion of the key species along the tube, [-]."""
+        F0 = self.F[0, self.key_index]
+        return (F0 - self.F[:, self.key_index]) / F0
+
+    @property
+    def mole_fractions(self):
+        """Mole fractions along the tube, (N, n), [-]."""
+        Ft = self.F.sum(axis=1, keepdims=True)
+        return self.F / Ft
+
+    @property
+    def outlet_conversion(self):
+        return float(self.conversion[-1])
+
+    def summary(self):
+        """The run's numbers as the ``summary.json`` dict (SI units, whole reactor)."""
+        x_out = self.mole_fractions[-1]
+        outlet = {
+            "position_m": _num(self.z[-1]),
+            "conversion": _num(self.conversion[-1]),
+            "temperature_K": _num(self.T[-1]),
+            "pressure_Pa": _num(self.P[-1]),
+            "coolant_temperature_K": _num(self.Tc[-1]) if self.case.heat.mode in (
+                "constant-coolant", "co-current") else None,
+            "molar_flows_mol_per_s": {s: _num(v) for s, v in zip(self.species, self.F[-1])},
+            "mole_fractions": {s: _num(v) for s, v in zip(self.species, x_out)},
+            "heat_duty_W": _num(self.Q[-1]),
+            "pressure_drop_Pa": _num(self.P[0] - self.P[-1]),
+        }
+        return {
+            "title": self.case.title,
+            "status": self.status,
+            "termination": self.termination,
+            "key_species": self.key_species,
+            "outlet": outlet,
+            "hot_spot": {k: (_num(v) if isinstance(v, (int, float, np.floating)) else v)
+                         for k, v in self.hot_spot.items()},
+            "design": {k: (_num(v) if isinstance(v, (int, float, np.floating)) and not isinstance(v, bool) else v)
+                       for k, v in self.design.items()},
+            "adiabatic_temperature_rise_K": _num(self.adiabatic_temperature_rise),
+            "closure": {k: _num(v) for k, v in self.closure.items()},
+            "max_compressibility_deviation": _num(np.nanmax(np.abs(self.Z - 1.0)))
+            if np.any(np.isfinite(self.Z)) else None,
+            "events": self.events,
+            "warnings": list(self.warnings),
+            "solver": self.solver_stats,
+            "references": list(self.references),
+            "versions": self.versions,
+        }
+
+    def profile_table(self):
+        """(header, rows) for ``profile.csv``: one row per axial point."""
+        header = ["position_m", "temperature_K", "pressure_Pa", "coolant_temperature_K", "compressibility_Z",
+                  f"conversion_{self.key_species}", "heat_added_W"]
+        header += [f"molar_flow_{s}_mol_per_s" for s in self.species]
+        header += [f"mole_fraction_{s}" for s in self.species]
+        cooled = self.case.heat.mode in ("constant-coolant", "co-current")
+        X = self.conversion
+        x = self.mole_fractions
+        rows = []
+        for k in range(len(self.z)):
+            row = [self.z[k], self.T[k], self.P[k], self.Tc[k] if cooled else float("nan"), self.Z[k], X[k],
+                   self.Q[k]]
+            row += list(self.F[k]) + list(x[k])
+            rows.append(row)
+        return header, rows

@@ -1,0 +1,105 @@
+"""Conservation checks and data-range warnings of a finished run.
+
+* Element closure: every element (and, for custom species without elements,
+  the total mass) entering must leave: max |out - in| / in.
+* Energy closure: H_out - H_in - Q = 0, with the stream enthalpies evaluated
+  independently of the kernel by Cantera's own species thermo (ideal-gas part)
+  and Q the integrated wall heat; relative to the largest of |Q|, the reaction
+  heat sum_i (F_i,out - F_i,in) h_i(T_in) and the sensible heat change.
+"""
+import functools
+
+import numpy as np
+
+from simulator.model import kernel as K
+
+
+@functools.lru_cache(maxsize=32)
+def _cantera_species_thermo(species_path, names, custom_key):
+    """Cantera thermo objects of the model's species (cached per species set)."""
+    from simulator.thermo.species_data import species_in_file
+
+    in_file = species_in_file(species_path) if species_path else {}
+    return {n: in_file[n].thermo for n in names if n in in_file and n not in custom_key}
+
+
+def _enthalpy_cantera(model, F, T, P):
+    """Stream enthalpy [W] from Cantera species thermo (custom species: exact constant-cp form)."""
+    case = model.case
+    custom = {c.name: c for c in case.thermo.custom}
+    thermo = _cantera_species_thermo(model.species.species_path, model.species.names, tuple(sorted(custom)))
+    H = 0.0
+    for name, Fi in zip(model.species.names, F):
+        if name in custom:
+            c = custom[name]
+            h = c.enthalpy_of_formation + c.cp * (T - 298.15)
+        else:
+            h = thermo[name].h(T) / 1000.0
+        H += Fi * h
+    if case.thermo.equation_of_state == "peng-robinson":
+        ip, crit = model.args[0], model.args[9]
+        Ft = float(np.sum(np.clip(F, 0, None)))
+        H += Ft * K.pr_departure(T, P, np.clip(F, 0, None) / Ft, crit)[1]
+        del ip
+    return H
+
+
+def closure(model, ys):
+    """Element and energy closure of a profile (per tube states), relative [-]."""
+    n = model.n
+    F_in, F_out = ys[0, :n], ys[-1, :n]
+    elements = sorted({e for el in model.species.elements for e in el})
+    worst = 0.0
+    for e in elements:
+        a = np.array([el.get(e, 0.0) for el in model.species.elements])
+        inflow = float(a @ F_in)
+        if inflow > 0:
+            worst = max(worst, abs(float(a @ F_out) - inflow) / inflow)
+    mw = model.species.molar_mass
+    mass_in = float(mw @ F_in)
+    worst = max(worst, abs(float(mw @ F_out) - mass_in) / mass_in)
+    T_in, T_out = ys[0, n], ys[-1, n]
+    P_in, P_out = ys[0, n + 1], ys[-1, n + 1]
+    H_in = _enthalpy_cantera(model, F_in, T_in, P_in)
+    H_out = _enthalpy_cantera(model, F_out, T_out, P_out)
+    Q = ys[-1, n + 3]
+    reaction_heat = abs(_enthalpy_cantera(model, F_out, T_in, P_in) - H_in)
+    sensible = abs(H_out - _enthalpy_cantera(model, F_out, T_in, P_in))
+    scale = max(abs(Q), reaction_heat, sensible)
+    energy = abs(H_out - H_in - Q) / scale if scale > 0 else 0.0
+    return {"elements_relative": worst, "energy_relative": energy}
+
+
+def compressibility_profile(model, ys):
+    """Z along the tube: the case's EOS, or Peng-Robinson as a check where critical data exist."""
+    n = model.n
+    crit = model.args[9]
+    F = np.clip(ys[:, :n], 0.0, None)
+    present = F.max(axis=0) > 0
+    if not np.all(np.isfinite(crit[present])):
+        return np.full(len(ys), np.nan)
+    out = np.empty(len(ys))
+    sub = crit[present]
+    for k in range(len(ys)):
+        x = F[k, present] / F[k, present].sum()
+        out[k] = K.pr_departure(ys[k, n], ys[k, n + 1], x, sub)[0]
+    return out
+
+
+def range_warnings(model, ys):
+    """Warnings where the temperature left a species' data range (species present only)."""
+    n = model.n
+    T_lo, T_hi = float(ys[:, n].min()), float(ys[:, n].max())
+    out = []
+    for i, name in enumerate(model.species.names):
+        if ys[:, i].max() <= 0:
+            continue
+        lo, hi = model.species.t_min[i], model.species.t_max[i]
+        if T_lo < lo or T_hi > hi:
+            out.append(f"temperature {T_lo:.1f}-{T_hi:.1f} K leaves the data range of {name} "
+                       f"({lo:.0f}-{hi:.0f} K, {model.species.sources[i]}): its properties are extrapolated")
+    crit_missing = [name for name, src in zip(model.species.names, model.critical_sources) if not src]
+    if crit_missing and model.case.thermo.equation_of_state == "ideal-gas":
+        out.append(f"no critical constants for {', '.join(crit_missing)}: the ideal-gas check (Z) is not "
+                   "available; give [thermo.critical.NAME] to enable it")
+    return out

@@ -1,0 +1,294 @@
+"""simulate(case) -> Result: integrate the tube balances and locate the design events.
+
+Integrator: ODEPACK LSODA (``scipy.integrate.odeint``), which switches between
+non-stiff and stiff (BDF) methods, with the compiled right-hand side of
+:mod:`simulator.model.kernel` and a per-variable absolute tolerance. Events are
+located on the solver's own trajectory: a sign change of the event function
+between output points is bracketed and then refined by root finding (Brent) on
+states re-integrated from the last output point, so an event is exact to the
+solver tolerance, not to the output grid:
+
+* ``temperature_limit``: T - T_limit crosses zero upward -> the run stops there;
+* ``pressure_floor``: P falls below 1 % of the feed pressure -> the run stops;
+* ``target_conversion``: X_key - X_target crosses zero -> recorded (sizing);
+* ``hot_spot``: dT/dz crosses zero from + to - -> local maxima; the hot spot is
+  the highest of these and of the end points.
+
+A failed integration (solver error, non-finite state) gives a Result with
+``status = "failed"`` and where and why in ``termination``; callers treat it
+as a failure, never as a design result.
+"""
+import math
+import time
+from importlib import metadata
+
+import numpy as np
+from scipy.integrate import odeint
+from scipy.optimize import brentq
+
+from simulator.model import kernel as K
+from simulator.model.adiabatic import adiabatic_rise
+from simulator.model.build import build_model
+from simulator.results import Result
+from simulator.solve.checks import closure, compressibility_profile, range_warnings
+
+PRESSURE_FLOOR = 0.01   # fraction of the feed pressure below which the run stops
+
+
+def versions():
+    """Versions of tubesim and the numerical libraries, for provenance."""
+    out = {}
+    for dist, key in (("tubesim", "tubesim"), ("cantera", "cantera"), ("scipy", "scipy"), ("numpy", "numpy"),
+                      ("numba", "numba")):
+        try:
+            out[key] = metadata.version(dist)
+        except metadata.PackageNotFoundError:
+            out[key] = "not installed"
+    return out
+
+
+class _Tube:
+    """Integration of one model, with re-integration from output points for events."""
+
+    def __init__(self, model, rtol, atol, hmax):
+        self.model = model
+        self.rtol = rtol
+        self.atol = atol
+        self.hmax = hmax
+        self.nfev = 0
+        self.njev = 0
+        self.nsteps = 0
+        self.calls = 0
+
+    def run(self, y0, zs):
+        sol, info = odeint(K.rhs_odeint, y0, zs, args=self.model.args, rtol=self.rtol, atol=self.atol,
+                           full_output=True, hmax=self.hmax, mxstep=100000, printmessg=False)
+        self.calls += 1
+        if len(info["nfe"]):
+            self.nfev += int(info["nfe"][-1])
+            self.njev += int(info["nje"][-1])
+            self.nsteps += int(info["nst"][-1])
+        return sol, info
+
+    def state_at(self, z0, y0, z):
+        if z == z0:
+            return y0
+        sol, info = self.run(y0, np.array([z0, z]))
+        return sol[-1]
+
+    def derivative(self, z, y):
+        return K.rhs_odeint(y, z, *self.model.args)
+
+
+def _first_crossing(values, upward=True):
+    """Index k of the first sign change between k and k+1 (of values as given), or None."""
+    v = np.asarray(values)
+    if upward:
+        idx = np.nonzero((v[:-1] <= 0) & (v[1:] > 0))[0]
+    else:
+        idx = np.nonzero((v[:-1] >= 0) & (v[1:] < 0))[0]
+    return int(idx[0]) if len(idx) else None
+
+
+def _refine(tube, zs, ys, k, g):
+    """Root of g(z, y(z)) in [zs[k], zs[k+1]] on re-integrated states; returns (z, y)."""
+    z0, y0 = zs[k], ys[k]
+    span = zs[k + 1] - z0
+
+    def f(z):
+        return g(z, tube.state_at(z0, y0, z))
+
+    try:
+        root = brentq(f, z0, zs[k + 1], xtol=max(1e-12, 1e-10 * span), rtol=1e-12, maxiter=100)
+    except ValueError:  # no sign change on the refined trajectory (grazing): keep the grid point
+        root = zs[k + 1]
+    return root, tube.state_at(z0, y0, root)
+
+
+def simulate(case, model=None, length=None):
+    """Solve the mole, energy and pressure balances along the tube.
+
+    Parameters
+    ----------
+    case : simulator.case.schema.Case
+        Validated case.
+    model : simulator.model.build.Model, optional
+        Pre-built model (reused by sweeps and sizing).
+    length : float, optional
+        Integrate to this length instead of the case's tube length, [m]
+
+    Returns
+    -------
+    Result
+        ``status`` is "completed" (end of tube), "stopped" (temperature limit or
+        pressure floor) or "failed" (solver failure; ``termination`` says where and why).
+    """
+    started = time.perf_counter()
+    model = model or build_model(case)
+    n = model.n
+    L = case.tube.length if length is None else length
+    opts = case.solver
+    zs = np.linspace(0.0, L, opts.output_points)
+    atol = model.scale * opts.atol_scale
+    tube = _Tube(model, opts.rtol, atol, opts.max_step)
+    ys, info = tube.run(model.y0, zs)
+    warnings = []
+    status, termination = "completed", f"end of tube reached at z = {L:.6g} m"
+    events = {}
+
+    ok = info["message"] == "Integration successful."
+    finite = np.all(np.isfinite(ys), axis=1)
+    last_good = len(zs) - 1
+    if not ok or not finite.all():
+        reached = float(np.max(info["tcur"])) if len(info["tcur"]) else 0.0
+        bad = np.nonzero(~finite | (zs > reached + 1e-12 * L))[0]
+        last_good = int(bad[0]) - 1 if len(bad) else len(zs) - 1
+        last_good = max(last_good, 0)
+        y = ys[last_good]
+        status = "failed"
+        why = info["message"].strip() if not ok else "the state became non-finite"
+        termination = (f"solver failed at z = {zs[last_good]:.6g} m of {L:.6g} m (T = {y[n]:.6g} K, "
+                       f"P = {y[n + 1]:.6g} Pa): {why}. Try tighter [solver] rtol, a smaller max_step, "
+                       "or check the kinetics and units.")
+        zs, ys = zs[:last_good + 1], ys[:last_good + 1]
+
+    # stopping events, in order along the tube
+    T_lim = case.design.temperature_limit
+    stops = []
+    if not math.isnan(T_lim):
+        if ys[0, n] >= T_lim:
+            stops.append((0.0, ys[0], "temperature_limit"))
+        else:
+            k = _first_crossing(ys[:, n] - T_lim)
+            if k is not None:
+                z_e, y_e = _refine(tube, zs, ys, k, lambda z, y: y[n] - T_lim)
+                stops.append((z_e, y_e, "temperature_limit"))
+    p_floor = PRESSURE_FLOOR * case.feed.pressure
+    k = _first_crossing(p_floor - ys[:, n + 1])
+    if k is not None:
+        z_e, y_e = _refine(tube, zs, ys, k, lambda z, y: p_floor - y[n + 1])
+        stops.append((z_e, y_e, "pressure_floor"))
+    if stops:
+        z_e, y_e, name = min(stops, key=lambda s: s[0])
+        keep = zs < z_e
+        zs = np.append(zs[keep], z_e)
+        ys = np.vstack([ys[keep], y_e])
+        if status != "failed":
+            status = "stopped"
+            if name == "temperature_limit":
+                termination = (f"temperature limit {T_lim:.6g} K exceeded at z = {z_e:.6g} m "
+                               f"(design.temperature_limit); the run was stopped there")
+            else:
+                termination = (f"pressure fell below {100 * PRESSURE_FLOOR:g} % of the feed pressure at "
+                               f"z = {z_e:.6g} m: this tube cannot pass the feed at this pressure drop")
+        events[name] = {"position_m": float(z_e), "temperature_K": float(y_e[n]), "pressure_Pa": float(y_e[n + 1])}
+
+    # target conversion (recorded, the run continues)
+    key = model.key_index
+    F0k = model.y0[key]
+    X = (F0k - ys[:, key]) / F0k
+    design = {"target_conversion": None, "reached": False, "length_m": None, "volume_m3": None,
+              "catalyst_mass_kg": None}
+    X_t = case.design.target_conversion
+    if not math.isnan(X_t):
+        design["target_conversion"] = X_t
+        k = _first_crossing(X - X_t)
+        if k is not None:
+            z_t, _ = _refine(tube, zs, ys, k, lambda z, y: (F0k - y[key]) / F0k - X_t)
+            design.update(_design_numbers(case, model, z_t))
+            events["target_conversion"] = {"position_m": float(z_t)}
+        elif X[0] >= X_t:
+            design.update(_design_numbers(case, model, 0.0))
+
+    hot = _hot_spot(tube, zs, ys, n, case, stopped_by_limit="temperature_limit" in events)
+    Tc = ys[:, n + 2]
+    Z = compressibility_profile(model, ys)
+    count = model.count
+    clos = closure(model, ys)
+    warnings += range_warnings(model, ys)
+    warnings += model_warnings(model, ys, zs)
+    rise, rise_info = adiabatic_rise(model.y0[:n], case.feed.temperature, model.args[4], key, model.args[2])
+    elapsed = time.perf_counter() - started
+    stats = {"method": "LSODA (scipy.integrate.odeint)", "rtol": opts.rtol, "atol_scale": opts.atol_scale,
+             "output_points": int(len(zs)), "rhs_evaluations": tube.nfev, "jacobian_evaluations": tube.njev,
+             "steps": tube.nsteps, "integrator_calls": tube.calls, "wall_time_s": round(elapsed, 4)}
+    return Result(
+        case=case, species=model.species.names, z=zs, F=ys[:, :n] * count, T=ys[:, n], P=ys[:, n + 1], Tc=Tc,
+        Q=ys[:, n + 3] * count, Z=Z, status=status, termination=termination, hot_spot=hot, design=design,
+        closure=clos, warnings=tuple(warnings), solver_stats=stats, versions=versions(),
+        references=tuple(references_used(case, model, np.any(np.isfinite(Z)))), events=events, adiabatic_temperature_rise=rise,
+        extra={"adiabatic": rise_info, "viscosity": model.viscosity_note,
+               "critical_sources": dict(zip(model.species.names, model.critical_sources))},
+    )
+
+
+def _design_numbers(case, model, z):
+    volume = model.area * z * model.count
+    mass = volume * case.bed.bulk_density if case.bed is not None else None
+    return {"reached": True, "length_m": float(z), "volume_m3": float(volume),
+            "catalyst_mass_kg": None if mass is None else float(mass)}
+
+
+def _hot_spot(tube, zs, ys, n, case, stopped_by_limit):
+    """Highest temperature: interior maxima located where dT/dz changes sign + to -."""
+    T0 = case.feed.temperature
+    if stopped_by_limit:
+        return {"temperature_K": float(ys[-1, n]), "position_m": float(zs[-1]),
+                "rise_above_feed_K": float(ys[-1, n] - T0),
+                "rise_above_coolant_K": _rise_above_coolant(case, ys[-1]),
+                "located_by": "temperature limit: the run stopped there; the true maximum is higher"}
+    dTdz = np.array([tube.derivative(z, y)[n] for z, y in zip(zs, ys)])
+    candidates = [(float(ys[0, n]), float(zs[0]), ys[0], "inlet (dT/dz <= 0 there)"),
+                  (float(ys[-1, n]), float(zs[-1]), ys[-1], "outlet (temperature still rising)"
+                   if dTdz[-1] > 0 else "outlet")]
+    idx = np.nonzero((dTdz[:-1] > 0) & (dTdz[1:] <= 0))[0]
+    # refine the highest few interior maxima only
+    for k in sorted(idx, key=lambda k: -max(ys[k, n], ys[k + 1, n]))[:5]:
+        z_m, y_m = _refine(tube, zs, ys, int(k), lambda z, y: tube.derivative(z, y)[n])
+        candidates.append((float(y_m[n]), float(z_m), y_m, "event dT/dz = 0"))
+    T_max, z_max, y_max, how = max(candidates, key=lambda c: c[0])
+    return {"temperature_K": T_max, "position_m": z_max, "rise_above_feed_K": T_max - T0,
+            "rise_above_coolant_K": _rise_above_coolant(case, y_max), "located_by": how}
+
+
+def _rise_above_coolant(case, y):
+    if case.heat.mode not in ("constant-coolant", "co-current"):
+        return None
+    n = len(case.species)
+    return float(y[n] - y[n + 2])
+
+
+def model_warnings(model, ys, zs):
+    """Warnings about the physics of this run (not about the data ranges)."""
+    out = []
+    n = model.n
+    if np.any(ys[:, :n] < -1e-9 * model.y0[:n].sum()):
+        worst = int(np.argmin(ys[:, :n].min(axis=0)))
+        out.append(f"molar flow of {model.species.names[worst]} went negative "
+                   f"({ys[:, worst].min():.3g} mol/s per tube); tighten [solver] rtol/atol_scale")
+    if model.case.pressure_drop.model != "none":
+        dp = ys[0, n + 1] - ys[-1, n + 1]
+        if dp > 0.3 * ys[0, n + 1]:
+            out.append(f"pressure drop is {100 * dp / ys[0, n + 1]:.0f} % of the feed pressure: check the tube "
+                       "count, particle size or flow (the momentum balance neglects acceleration)")
+    return out
+
+
+def references_used(case, model, compressibility_computed=False):
+    """Reference keys of the components that ran in this case."""
+    keys = ["cantera", "hindmarsh1983", "arrhenius1889"]
+    if case.thermo.species_file:
+        base = case.thermo.species_file.rsplit("/", 1)[-1]
+        keys.append({"gri30.yaml": "gri30", "nasa_gas.yaml": "nasa_gas"}.get(base, "mcbride2002"))
+        keys.append("mcbride2002")
+    if any(r.rate_law == "lhhw" for r in case.reactions):
+        keys.append("hougen_watson1947")
+    if case.pressure_drop.model == "ergun":
+        keys.append("ergun1952")
+    elif case.pressure_drop.model == "pipe-friction":
+        keys.append({"churchill-1977": "churchill1977", "colebrook-1939": "colebrook1939",
+                     "blasius-1913": "blasius1913", "laminar": "hagen_poiseuille"}
+                    [case.pressure_drop.friction_correlation])
+    if case.thermo.equation_of_state == "peng-robinson" or compressibility_computed:
+        keys.append("peng_robinson1976")
+    return keys

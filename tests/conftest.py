@@ -1,0 +1,40 @@
+"""Shared fixtures and the ``published`` marker check.
+
+A test that compares against the outside world carries
+``@pytest.mark.published("KEY", "where in the source")``; KEY must be in
+``tests/sources.toml`` (author, title, year, what is used).
+"""
+import tomllib
+from pathlib import Path
+
+import pytest
+
+ROOT = Path(__file__).resolve().parents[1]
+SOURCES = tomllib.loads((ROOT / "tests" / "sources.toml").read_text())
+
+
+def pytest_collection_modifyitems(config, items):
+    for item in items:
+        for mark in item.iter_markers("published"):
+            key = mark.args[0] if mark.args else None
+            if key not in SOURCES:
+                raise pytest.UsageError(
+                    f"{item.nodeid}: published source key {key!r} is not in tests/sources.toml"
+                )
+
+
+@pytest.fixture
+def cases_dir():
+    return ROOT / "cases"
+
+
+@pytest.fixture
+def write_case(tmp_path):
+    """Write TOML text to a case file in a temporary folder and return its path."""
+
+    def _write(text, name="case.toml"):
+        path = tmp_path / name
+        path.write_text(text)
+        return path
+
+    return _write
