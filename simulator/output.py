@@ -50,6 +50,9 @@ def print_summary(result, stream=None):
     rise = s["adiabatic_temperature_rise_K"]
     if rise is not None:
         lines.append(f"  adiabatic rise    {rise:+.1f} K (complete conversion of {s['key_species']})")
+    elif s["adiabatic"]:
+        lines.append(f"  adiabatic rise    not defined: {s['adiabatic']['note']} (complete conversion of "
+                     f"{s['key_species']} cannot happen adiabatically)")
     c = s["closure"]
     lines.append(f"  closure           elements {c['elements_relative']:.1e}, energy {c['energy_relative']:.1e}")
     for w in s["warnings"]:

@@ -23,6 +23,9 @@ REFERENCES = {
                      "pp. 133-156, 1939.",
     "blasius1913": "H. Blasius, \"Das Aehnlichkeitsgesetz bei Reibungsvorgängen in Flüssigkeiten,\" Mitt. "
                    "Forschungsarb. Geb. Ingenieurwes., vol. 131, pp. 1-41, 1913.",
+    "haaland1983": "S.E. Haaland, \"Simple and explicit formulas for the friction factor in turbulent pipe "
+                   "flow,\" J. Fluids Eng., vol. 105, no. 1, pp. 89-90, 1983, doi:10.1115/1.3240948.",
+    "white2011": "F.M. White, Fluid Mechanics, 7th ed., McGraw-Hill, 2011, ch. 6.",
     "hagen_poiseuille": "Hagen-Poiseuille laminar friction factor f = 64/Re (textbook standard).",
     "peng_robinson1976": "D.-Y. Peng, D.B. Robinson, \"A new two-constant equation of state,\" Ind. Eng. Chem. "
                          "Fundam., vol. 15, no. 1, pp. 59-64, 1976, doi:10.1021/i160057a011.",

@@ -103,6 +103,7 @@ class Result:
             "design": {k: (_num(v) if isinstance(v, (int, float, np.floating)) and not isinstance(v, bool) else v)
                        for k, v in self.design.items()},
             "adiabatic_temperature_rise_K": _num(self.adiabatic_temperature_rise),
+            "adiabatic": self._adiabatic_block(),
             "closure": {k: _num(v) for k, v in self.closure.items()},
             "max_compressibility_deviation": _num(np.nanmax(np.abs(self.Z - 1.0)))
             if np.any(np.isfinite(self.Z)) else None,
@@ -111,6 +112,21 @@ class Result:
             "solver": self.solver_stats,
             "references": list(self.references),
             "versions": self.versions,
+        }
+
+    def _adiabatic_block(self):
+        info = self.extra.get("adiabatic", {})
+        if not info:
+            return None
+        reaction = info.get("reaction")
+        limited = info.get("limited_by")
+        return {
+            "basis": "complete conversion of the key species by one declared reaction, enthalpy balance with "
+                     "temperature-dependent heat capacities",
+            "reaction": None if reaction is None else self.case.reactions[reaction].equation,
+            "limited_by": None if limited is None else self.species[limited],
+            "outlet_temperature_K": _num(info.get("outlet_temperature")),
+            "note": info.get("note", ""),
         }
 
     def profile_table(self):

@@ -19,6 +19,8 @@ from scipy.optimize import brentq
 from simulator.thermo.nasa7 import h_RT
 from simulator.units import R
 
+T_MIN, T_MAX = 100.0, 6000.0   # search range of the adiabatic outlet temperature [K]
+
 
 def stream_enthalpy(F, T, nasa):
     """Ideal-gas enthalpy flow of a stream, [W].
@@ -81,28 +83,31 @@ def adiabatic_rise(F0, T0, nu, key, nasa):
     rise : float
         T_ad - T0, negative for endothermic reactions, [K]
     info : dict
-        ``reaction`` index used, ``limited_by`` species index, ``outlet_temperature`` [K]
+        ``reaction`` index used, ``limited_by`` species index, ``outlet_temperature`` [K];
+        ``note`` when the balance has no solution between T_MIN and T_MAX (the rise is then NaN:
+        complete conversion cannot happen adiabatically, e.g. a strongly endothermic feed)
     """
     H0 = stream_enthalpy(F0, T0, nasa)
-    best = None
+    candidates = []
     for F_out, j, limited in complete_conversion_outlet(F0, nu, key):
         def balance(T):
             return stream_enthalpy(F_out, T, nasa) - H0
 
-        lo, hi = 0.2 * T0, T0
-        # bracket: expand upward for exothermic, downward for endothermic
-        if balance(T0) < 0:
+        if balance(T0) < 0:      # exothermic: expand upward
             lo, hi = T0, T0 * 1.5
-            while balance(hi) < 0 and hi < 1e5:
-                lo, hi = hi, hi * 1.5
-        else:
-            lo = T0 / 1.5
-            while balance(lo) > 0 and lo > 1.0:
-                hi, lo = lo, lo / 1.5
+            while balance(hi) < 0 and hi < T_MAX:
+                lo, hi = hi, min(hi * 1.5, T_MAX)
+        else:                    # endothermic: expand downward
+            lo, hi = T0 / 1.5, T0
+            while balance(lo) > 0 and lo > T_MIN:
+                hi, lo = lo, max(lo / 1.5, T_MIN)
+        if balance(lo) * balance(hi) > 0:
+            candidates.append((math.nan, {"reaction": j, "limited_by": limited, "outlet_temperature": math.nan,
+                                          "note": f"no solution between {T_MIN:g} K and {T_MAX:g} K"}))
+            continue
         T_ad = brentq(balance, lo, hi, xtol=1e-9, rtol=1e-13)
-        rise = T_ad - T0
-        if best is None or rise > best[0]:
-            best = (rise, {"reaction": j, "limited_by": limited, "outlet_temperature": T_ad})
-    if best is None:
-        return math.nan, {}
-    return best
+        candidates.append((T_ad - T0, {"reaction": j, "limited_by": limited, "outlet_temperature": T_ad}))
+    finite = [c for c in candidates if math.isfinite(c[0])]
+    if finite:
+        return max(finite, key=lambda c: c[0])
+    return candidates[0] if candidates else (math.nan, {})

@@ -20,10 +20,11 @@ as a failure, never as a design result.
 """
 import math
 import time
+import warnings
 from importlib import metadata
 
 import numpy as np
-from scipy.integrate import odeint
+from scipy.integrate import ODEintWarning, odeint
 from scipy.optimize import brentq
 
 from simulator.model import kernel as K
@@ -61,8 +62,10 @@ class _Tube:
         self.calls = 0
 
     def run(self, y0, zs):
-        sol, info = odeint(K.rhs_odeint, y0, zs, args=self.model.args, rtol=self.rtol, atol=self.atol,
-                           full_output=True, hmax=self.hmax, mxstep=100000, printmessg=False)
+        with warnings.catch_warnings():  # the status is checked and reported by simulate()
+            warnings.simplefilter("ignore", ODEintWarning)
+            sol, info = odeint(K.rhs_odeint, y0, zs, args=self.model.args, rtol=self.rtol, atol=self.atol,
+                               full_output=True, hmax=self.hmax, mxstep=100000, printmessg=False)
         self.calls += 1
         if len(info["nfe"]):
             self.nfev += int(info["nfe"][-1])
@@ -132,7 +135,7 @@ def simulate(case, model=None, length=None):
     atol = model.scale * opts.atol_scale
     tube = _Tube(model, opts.rtol, atol, opts.max_step)
     ys, info = tube.run(model.y0, zs)
-    warnings = []
+    notes = []
     status, termination = "completed", f"end of tube reached at z = {L:.6g} m"
     events = {}
 
@@ -205,8 +208,8 @@ def simulate(case, model=None, length=None):
     Z = compressibility_profile(model, ys)
     count = model.count
     clos = closure(model, ys)
-    warnings += range_warnings(model, ys)
-    warnings += model_warnings(model, ys, zs)
+    notes += range_warnings(model, ys)
+    notes += model_warnings(model, ys, zs)
     rise, rise_info = adiabatic_rise(model.y0[:n], case.feed.temperature, model.args[4], key, model.args[2])
     elapsed = time.perf_counter() - started
     stats = {"method": "LSODA (scipy.integrate.odeint)", "rtol": opts.rtol, "atol_scale": opts.atol_scale,
@@ -215,7 +218,7 @@ def simulate(case, model=None, length=None):
     return Result(
         case=case, species=model.species.names, z=zs, F=ys[:, :n] * count, T=ys[:, n], P=ys[:, n + 1], Tc=Tc,
         Q=ys[:, n + 3] * count, Z=Z, status=status, termination=termination, hot_spot=hot, design=design,
-        closure=clos, warnings=tuple(warnings), solver_stats=stats, versions=versions(),
+        closure=clos, warnings=tuple(notes), solver_stats=stats, versions=versions(),
         references=tuple(references_used(case, model, np.any(np.isfinite(Z)))), events=events, adiabatic_temperature_rise=rise,
         extra={"adiabatic": rise_info, "viscosity": model.viscosity_note,
                "critical_sources": dict(zip(model.species.names, model.critical_sources))},

@@ -80,9 +80,9 @@ def species_in_file(path):
         raise ThermoError(f"cannot read species from {path}: {first[-1] if first else err}") from err
 
 
-def near(name, choices, n=3):
+def near(name, choices, n=5):
     """Near matches of ``name`` among ``choices`` for did-you-mean hints."""
-    matches = difflib.get_close_matches(name, list(choices), n=n, cutoff=0.6)
+    matches = difflib.get_close_matches(name, list(choices), n=n, cutoff=0.5)
     if not matches:
         upper = {c.upper(): c for c in choices}
         matches = [upper[m] for m in difflib.get_close_matches(name.upper(), list(upper), n=n, cutoff=0.6)]
