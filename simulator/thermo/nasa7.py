@@ -37,7 +37,7 @@ def cp_R(coeffs, T):
 
     Examples
     --------
-    >>> round(cp_R(constant_cp_coefficients(150.0, 0.0), 500.0) * R, 6)
+    >>> round(float(cp_R(constant_cp_coefficients(150.0, 0.0), 500.0) * R), 6)
     150.0
     """
     o = 1 if T >= coeffs[0] else 8
@@ -106,7 +106,7 @@ def constant_cp_coefficients(cp, enthalpy_of_formation, standard_entropy=0.0, T0
     Examples
     --------
     >>> c = constant_cp_coefficients(150.0, -60000.0)
-    >>> round(h_RT(c, 700.0) * R * 700.0, 6)   # -60000 + 150 * (700 - 298.15)
+    >>> round(float(h_RT(c, 700.0) * R * 700.0), 6)   # -60000 + 150 * (700 - 298.15)
     277.5
     """
     a1 = cp / R
