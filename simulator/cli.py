@@ -32,6 +32,16 @@ def build_parser():
     p = sub.add_parser("run", help="solve the tube balances; write summary.json and profile.csv")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
+
+    p = sub.add_parser("assumptions", help="textbook (isothermal, isobaric, ideal gas) vs full model; "
+                       "write assumptions.json")
+    p.add_argument("case", help="case file (TOML)")
+    p.add_argument("--out", required=True, help="output folder")
+
+    p = sub.add_parser("size", help="length for the given tube count and tube count for the given length; "
+                       "write sizing.json")
+    p.add_argument("case", help="case file (TOML)")
+    p.add_argument("--out", required=True, help="output folder")
     return parser
 
 
@@ -94,4 +104,30 @@ def _run(args):
     return 0
 
 
-COMMANDS = {"validate": _validate, "run": _run}
+def _assumptions(args):
+    from pathlib import Path
+
+    from simulator.assumptions import check_assumptions, format_table
+    from simulator.case.load import load_case
+    from simulator.fileio import atomic_write_json
+
+    report = check_assumptions(load_case(args.case))
+    atomic_write_json(Path(args.out) / "assumptions.json", report)
+    print(format_table(report))
+    return 0
+
+
+def _size(args):
+    from pathlib import Path
+
+    from simulator.case.load import load_case
+    from simulator.fileio import atomic_write_json
+    from simulator.sizing import format_sizing, size
+
+    report = size(load_case(args.case))
+    atomic_write_json(Path(args.out) / "sizing.json", report)
+    print(format_sizing(report))
+    return 0
+
+
+COMMANDS = {"validate": _validate, "run": _run, "assumptions": _assumptions, "size": _size}

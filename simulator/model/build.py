@@ -60,7 +60,7 @@ def feed_molar_flow(case, species):
     return value * case.feed.pressure / (Z * R * case.feed.temperature)
 
 
-def build_model(case, species=None):
+def build_model(case, species=None, constant_moles=False):
     """Pack a validated case into kernel arrays.
 
     Parameters
@@ -68,6 +68,8 @@ def build_model(case, species=None):
     case : simulator.case.schema.Case
     species : SpeciesData, optional
         Reuse already loaded species data (sweeps).
+    constant_moles : bool
+        Neglect the mole change in the concentrations (assumption check only).
 
     Returns
     -------
@@ -126,6 +128,7 @@ def build_model(case, species=None):
     fp[K.F_PMIN] = 1e-3 * case.feed.pressure
     fp[K.F_T0] = case.feed.temperature
     fp[K.F_P0] = case.feed.pressure
+    fp[K.F_FT0] = F0.sum()
     if case.bed is not None:
         fp[K.F_RHOB] = case.bed.bulk_density
         fp[K.F_EPS] = case.bed.void_fraction
@@ -137,7 +140,8 @@ def build_model(case, species=None):
         fp[K.F_MU0], fp[K.F_MUEXP], note = _viscosity_law(case, species, x0)
 
     ip = np.array([n, m, HEAT_CODES[heat.mode], DP_CODES[case.pressure_drop.model],
-                   FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax], dtype=np.int64)
+                   FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax,
+                   1 if constant_moles else 0], dtype=np.int64)
     Tc0 = heat.coolant_temperature if heat.mode in ("constant-coolant", "co-current") else case.feed.temperature
     y0 = np.concatenate([F0, [case.feed.temperature, case.feed.pressure, Tc0, 0.0]])
     Ft0 = F0.sum()

@@ -41,14 +41,14 @@ _colebrook = njit(cache=True)(colebrook_1939)
 _laminar = njit(cache=True)(friction_laminar)
 
 # integer parameters ip[...]
-I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX = range(7)
+I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN = range(8)
 HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_CONSTANT, HEAT_COCURRENT = range(4)
 DP_NONE, DP_ERGUN, DP_PIPE = range(3)
 EOS_IDEAL, EOS_PR = range(2)
 # float parameters fp[...]
 (F_AREA, F_DIAM, F_U, F_TC, F_MCP, F_RHOB, F_EPS, F_DP, F_MU0, F_MUEXP, F_MUT0, F_ROUGH, F_G,
- F_PMIN, F_T0, F_P0) = range(16)
-N_FP = 16
+ F_PMIN, F_T0, F_P0, F_FT0) = range(17)
+N_FP = 17
 # reaction columns rx[j, ...]
 X_A, X_B, X_E, X_ACT, X_BASIS, X_REV, X_DN, X_NDEN, X_NADS = range(9)
 N_RX = 9
@@ -160,13 +160,17 @@ def enthalpy_flow(F, T, P, nasa, ip, crit):
 def reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, out):
     """Rates of all reactions per unit reactor volume, [mol/(m^3*s)], written to ``out``.
 
-    Returns the compressibility factor Z used for the concentrations.
+    Returns the compressibility factor Z used for the concentrations. With
+    ``ip[I_FROZEN] == 1`` mole fractions are taken as F_i / F_T,0 (the mole change
+    of the reactions neglected in the concentrations), for the assumption check only.
     """
     n = ip[I_N]
     m = ip[I_M]
     Ft = 0.0
     for i in range(n):
         Ft += max(F[i], 0.0)
+    if ip[I_FROZEN] == 1:  # assumption check: concentrations as if the total moles did not change
+        Ft = fp[F_FT0]
     x = np.empty(n)
     for i in range(n):
         x[i] = max(F[i], 0.0) / Ft
