@@ -8,6 +8,12 @@ import tempfile
 from pathlib import Path
 
 
+def _umask():
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
+
+
 def atomic_write_bytes(path, data):
     """Write ``data`` (bytes) to ``path`` atomically; create the folder if needed."""
     path = Path(path)
@@ -18,6 +24,7 @@ def atomic_write_bytes(path, data):
             handle.write(data)
             handle.flush()
             os.fsync(handle.fileno())
+        os.chmod(tmp, 0o666 & ~_umask())   # mkstemp makes 0600; give the usual file mode
         os.replace(tmp, path)
     except BaseException:
         if os.path.exists(tmp):
