@@ -42,6 +42,11 @@ def build_parser():
                        "write sizing.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
+
+    p = sub.add_parser("screen", help="runaway screening: hot spot, criteria, critical values; "
+                       "write screening.json and sensitivity.csv")
+    p.add_argument("case", help="case file (TOML)")
+    p.add_argument("--out", required=True, help="output folder")
     return parser
 
 
@@ -130,4 +135,26 @@ def _size(args):
     return 0
 
 
-COMMANDS = {"validate": _validate, "run": _run, "assumptions": _assumptions, "size": _size}
+def _screen(args):
+    import csv
+    import io
+    from pathlib import Path
+
+    from simulator.case.load import load_case
+    from simulator.fileio import atomic_write_json, atomic_write_text
+    from simulator.screening.screen import format_screening, screen, screening_json, sensitivity_rows
+
+    report = screen(load_case(args.case))
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\n")
+    writer.writerow(["parameter", "value_SI", "hot_spot_temperature_K", "normalized_sensitivity"])
+    for name, value, T, s in sensitivity_rows(report):
+        writer.writerow([name, repr(float(value)), "" if T != T else repr(float(T)), "" if s != s else repr(float(s))])
+    out = Path(args.out)
+    atomic_write_json(out / "screening.json", screening_json(report))
+    atomic_write_text(out / "sensitivity.csv", buffer.getvalue())
+    print(format_screening(report))
+    return 0
+
+
+COMMANDS = {"validate": _validate, "run": _run, "assumptions": _assumptions, "size": _size, "screen": _screen}
