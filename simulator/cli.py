@@ -17,6 +17,12 @@ Results are screening-level engineering estimates; see the report's cautions.
 """
 
 
+def _execution_options(p):
+    p.add_argument("--scheduler", default=None, metavar="ADDRESS",
+                   help="Dask scheduler address, e.g. tcp://10.0.0.5:8786 (default: local process pool)")
+    p.add_argument("--batch-size", type=int, default=None, help="cases per task (default: automatic, >= 25)")
+
+
 def build_parser():
     """The argparse parser of the ``tubesim`` command."""
     parser = argparse.ArgumentParser(
@@ -42,6 +48,26 @@ def build_parser():
                        "write sizing.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
+
+    p = sub.add_parser("report", help="design-basis report: report.html and report.pdf")
+    p.add_argument("case", help="case file (TOML)")
+    p.add_argument("--out", required=True, help="output folder")
+    p.add_argument("--no-pdf", action="store_true", help="write the HTML report only")
+
+    p = sub.add_parser("sweep", help="full grid over case parameters; results.sqlite/.csv and plots")
+    p.add_argument("case", help="case file (TOML)")
+    p.add_argument("--vary", action="append", required=True, metavar='"PATH=START:STOP:N"',
+                   help='e.g. "heat.coolant_temperature=600 K:660 K:31" (repeat for a grid)')
+    p.add_argument("--out", required=True, help="output folder (a rerun with the same folder resumes)")
+    _execution_options(p)
+
+    p = sub.add_parser("uncertainty", help="Monte Carlo over the case's [[uncertainty]] entries")
+    p.add_argument("case", help="case file (TOML)")
+    p.add_argument("--samples", type=int, required=True, help="number of samples")
+    p.add_argument("--seed", type=int, default=None, help="sampler seed (recorded; drawn if not given)")
+    p.add_argument("--method", choices=("lhs", "sobol"), default="lhs", help="sampling design (default lhs)")
+    p.add_argument("--out", required=True, help="output folder (a rerun with the same folder resumes)")
+    _execution_options(p)
 
     p = sub.add_parser("screen", help="runaway screening: hot spot, criteria, critical values; "
                        "write screening.json and sensitivity.csv")
@@ -157,4 +183,74 @@ def _screen(args):
     return 0
 
 
-COMMANDS = {"validate": _validate, "run": _run, "assumptions": _assumptions, "size": _size, "screen": _screen}
+def _report(args):
+    from simulator.report.build import write_design_report
+
+    paths = write_design_report(args.case, args.out, pdf=not args.no_pdf, command_line=_command_line())
+    for kind, path in paths.items():
+        if path:
+            print(f"{kind}: {path}")
+    return 0
+
+
+def _command_line():
+    import shlex
+
+    return "tubesim " + " ".join(shlex.quote(a) for a in sys.argv[1:])
+
+
+def _raw_case(path):
+    import tomllib
+    from pathlib import Path
+
+    from simulator.case.load import load_case
+
+    load_case(path)                      # validate the base case first: every problem at once
+    return tomllib.loads(Path(path).read_text(encoding="utf-8")), str(Path(path).resolve().parent)
+
+
+def _sweep(args):
+    from simulator.sweeps.execute import run_grid_sweep
+    from simulator.sweeps.evaluator import TubeEvaluator
+    from simulator.report.sweep_plots import write_sweep_figures
+
+    raw, case_dir = _raw_case(args.case)
+    summary = run_grid_sweep(raw, case_dir, args.vary, TubeEvaluator(), args.out, scheduler=args.scheduler,
+                             batch_size=args.batch_size, progress=True)
+    figures = write_sweep_figures(args.out, raw)
+    print(f"{summary.total} cases: {summary.computed} computed now, {summary.skipped} already done, "
+          f"{summary.failed} failed; {summary.elapsed:.1f} s on {summary.workers} workers")
+    for path in figures:
+        print(f"figure: {path}")
+    print(f"results: {args.out}/results.csv, {args.out}/results.sqlite")
+    return 0
+
+
+def _uncertainty(args):
+    from simulator.sweeps.execute import run_uncertainty
+    from simulator.sweeps.evaluator import TubeEvaluator
+    from simulator.report.sweep_plots import write_uncertainty_figure
+
+    raw, case_dir = _raw_case(args.case)
+    if not raw.get("uncertainty"):
+        from simulator.errors import CaseError
+
+        raise CaseError(f"{args.case}: uncertainty: no [[uncertainty]] entries in the case.")
+    result = run_uncertainty(raw, case_dir, TubeEvaluator(), args.out, args.samples, seed=args.seed,
+                             method=args.method, scheduler=args.scheduler, batch_size=args.batch_size,
+                             progress=True)
+    figure = write_uncertainty_figure(args.out, raw, result)
+    p = result["probability_exceeding_limit"]
+    pct = result["percentiles"]["hot_spot_temperature_K"]
+    print(f"{result['samples']['used']} of {result['samples']['n']} samples used (seed {result['samples']['seed']})")
+    if p["estimate"] is not None:
+        lo, hi = p["interval"]
+        print(f"P(hot spot > {result['temperature_limit_K']:.1f} K) = {p['estimate']:.4f} "
+              f"({100 * p['confidence']:.0f} % interval {lo:.4f}-{hi:.4f}, {p['interval_method']})")
+    print("hot spot p5/p50/p95: " + ", ".join(f"{k} {v:.2f} K" for k, v in pct.items() if v is not None))
+    print(f"figure: {figure}")
+    return 0
+
+
+COMMANDS = {"validate": _validate, "run": _run, "assumptions": _assumptions, "size": _size, "screen": _screen, "report": _report,
+            "sweep": _sweep, "uncertainty": _uncertainty}

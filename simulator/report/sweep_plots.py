@@ -1,0 +1,195 @@
+"""Plots of sweep and uncertainty results (SVG text, black-and-white readable)."""
+import numpy as np
+
+from simulator.report.plots import _literal, _new_figure, _rc
+
+
+def _svg(fig):
+    import io
+
+    buffer = io.StringIO()
+    fig.savefig(buffer, format="svg")
+    return buffer.getvalue()
+
+
+def runaway_map_svg(x, y, rise, boundary_x, xlabel, ylabel, title, stopped=None):
+    """Hot-spot rise over a 2-D grid with the runaway boundary; returns SVG text.
+
+    Parameters
+    ----------
+    x : ndarray
+        Grid values along the horizontal axis (display units), [-]
+    y : ndarray
+        Grid values along the vertical axis (display units), [-]
+    rise : ndarray
+        Hot-spot rise above the coolant, shape (len(y), len(x)), [K]
+    boundary_x : ndarray
+        Critical x for each y (NaN where none), [-]
+    xlabel : str
+        Axis label with unit, [-]
+    ylabel : str
+        Axis label with unit, [-]
+    title : str
+        Plot title (case text, drawn literally), [-]
+    stopped : ndarray, optional
+        Boolean mask of runs stopped by the runaway guard, [-]
+
+    Returns
+    -------
+    svg : str
+        The figure as SVG text, [-]
+    """
+    with _rc("runaway-map"):
+        fig, ax = _new_figure(height=4.2)
+        mesh = ax.pcolormesh(x, y, rise, shading="nearest", cmap="Greys", rasterized=True)
+        cbar = fig.colorbar(mesh, ax=ax)
+        cbar.set_label("Hot-spot rise above coolant [K]")
+        levels = [lv for lv in (10, 30, 100, 300) if np.nanmin(rise) < lv < np.nanmax(rise)]
+        if levels:
+            contours = ax.contour(x, y, rise, levels=levels, colors="black", linewidths=0.6, linestyles=":")
+            ax.clabel(contours, fmt="%g K", fontsize=7)
+        ok = np.isfinite(boundary_x)
+        if ok.any():
+            ax.plot(boundary_x[ok], np.asarray(y)[ok], "k-", lw=2.2, label="runaway boundary (max of s)")
+            ax.plot(boundary_x[ok], np.asarray(y)[ok], "w--", lw=1.0)
+        if stopped is not None and np.any(stopped):
+            X, Y = np.meshgrid(x, y)
+            ax.plot(X[stopped], Y[stopped], "kx", ms=3, label="stopped at the runaway guard")
+        ax.set_xlabel(_literal(xlabel))
+        ax.set_ylabel(_literal(ylabel))
+        ax.set_title(_literal(title, 80))
+        if ok.any() or (stopped is not None and np.any(stopped)):
+            ax.legend(loc="best", fontsize=7, framealpha=0.9)
+        return _svg(fig)
+
+
+def exceedance_svg(hot_spots, limit, title):
+    """Empirical exceedance curve P(T* > T) with the limit and p5/p50/p95 marked; returns SVG text.
+
+    Parameters
+    ----------
+    hot_spots : ndarray
+        Hot-spot temperatures of the samples that ran, [K]
+    limit : float
+        Design temperature limit, [K]
+    title : str
+        Plot title, [-]
+
+    Returns
+    -------
+    svg : str
+        The figure as SVG text, [-]
+    """
+    T = np.sort(np.asarray(hot_spots, dtype=float))
+    n = len(T)
+    with _rc("exceedance"):
+        fig, ax = _new_figure()
+        if n:
+            ax.step(T, 1.0 - np.arange(1, n + 1) / n, where="post", color="black", lw=1.4,
+                    label=f"P(T* > T), {n} samples")
+            for q, style in ((5, ":"), (50, "-."), (95, "--")):
+                v = np.percentile(T, q)
+                ax.axvline(v, color="0.35", ls=style, lw=1, label=f"p{q} = {v:.1f} K")
+        if np.isfinite(limit):
+            ax.axvline(limit, color="black", lw=2, label=f"temperature limit {limit:.1f} K")
+        ax.set_xlabel("Hot-spot temperature T [K]")
+        ax.set_ylabel("Probability of exceeding [-]")
+        ax.set_ylim(-0.02, 1.02)
+        ax.set_title(_literal(title, 80))
+        ax.legend(loc="best", fontsize=7)
+        return _svg(fig)
+
+
+def _base_temperature(raw, path):
+    from simulator.sweeps.paths import get_path
+    from simulator.units import parse_quantity
+
+    try:
+        return parse_quantity(get_path(raw, path), "temperature", path)
+    except Exception:  # noqa: BLE001 - the field may be absent (uncooled case)
+        return float("nan")
+
+
+def _label(path):
+    units = {"temperature": "K", "pressure": "Pa", "coefficient": "W/(m^2 K)", "pre_exponential": "SI",
+             "activation_energy": "J/mol", "length": "m", "diameter": "m", "flow": "SI"}
+    unit = next((u for k, u in units.items() if k in path.rsplit(".", 1)[-1]), "-")
+    return f"{path} [{unit}]"
+
+
+def write_sweep_figures(out_dir, raw):
+    """Write the sweep's figure next to its results and return the paths written.
+
+    Two varied parameters give ``runaway_map.svg`` (first --vary along x, the second
+    along y, boundary along x for every y); one gives ``hot_spot_sweep.svg``.
+    """
+    from pathlib import Path
+
+    from simulator.fileio import atomic_write_text
+    from simulator.sweeps.boundary import boundary_along, boundary_on_grid
+    from simulator.sweeps.store import ResultsStore
+
+    out = Path(out_dir)
+    varied = ResultsStore.read_meta(out / "results.sqlite").get("varied_paths", [])
+    with ResultsStore(out / "results.sqlite", varied) as store:
+        paths = store.varied_paths
+        rows = store.rows()
+    title = raw.get("title", "")
+    cool = "heat.coolant_temperature"
+
+    def reference(row):
+        if cool in row:
+            return row[cool]
+        base = _base_temperature(raw, cool)
+        return base if np.isfinite(base) else _base_temperature(raw, "feed.temperature")
+
+    written = []
+    if len(paths) == 2:
+        xs = np.array(sorted({r[paths[0]] for r in rows}))
+        ys = np.array(sorted({r[paths[1]] for r in rows}))
+        T = np.full((len(ys), len(xs)), np.nan)
+        rise = np.full_like(T, np.nan)
+        stopped = np.zeros_like(T, dtype=bool)
+        ix = {v: i for i, v in enumerate(xs)}
+        iy = {v: i for i, v in enumerate(ys)}
+        for r in rows:
+            i, j = iy[r[paths[1]]], ix[r[paths[0]]]
+            if r["hot_spot_temperature_K"] is not None and r["status"] != "failed":
+                T[i, j] = r["hot_spot_temperature_K"]
+                rise[i, j] = T[i, j] - reference(r)
+                stopped[i, j] = r["status"] == "stopped"
+        boundary = boundary_on_grid(xs, ys, T)
+        svg = runaway_map_svg(xs, ys, rise, boundary, _label(paths[0]), _label(paths[1]), title, stopped=stopped)
+        written.append(atomic_write_text(out / "runaway_map.svg", svg))
+    elif len(paths) == 1:
+        pts = sorted((r[paths[0]], r["hot_spot_temperature_K"]) for r in rows
+                     if r["status"] != "failed" and r["hot_spot_temperature_K"] is not None)
+        if len(pts) >= 2:
+            x = np.array([p[0] for p in pts])
+            T = np.array([p[1] for p in pts])
+            xc, _ = boundary_along(x, T)
+            from simulator.report.plots import sensitivity_plot
+
+            uri = sensitivity_plot(x, T, critical_x=None if not np.isfinite(xc) else xc, xlabel=_label(paths[0]),
+                                   ylabel="Hot-spot temperature [K]", title=title)
+            import base64
+
+            svg = base64.b64decode(uri.split(",", 1)[1]).decode("utf-8")
+            written.append(atomic_write_text(out / "hot_spot_sweep.svg", svg))
+    return written
+
+
+def write_uncertainty_figure(out_dir, raw, result):
+    """Write ``exceedance.svg`` next to the uncertainty results; return its path."""
+    from pathlib import Path
+
+    from simulator.fileio import atomic_write_text
+    from simulator.sweeps.store import ResultsStore
+
+    out = Path(out_dir)
+    varied = ResultsStore.read_meta(out / "results.sqlite").get("varied_paths", [])
+    with ResultsStore(out / "results.sqlite", varied) as store:
+        hot = [r["hot_spot_temperature_K"] for r in store.rows()
+               if r["status"] != "failed" and r["hot_spot_temperature_K"] is not None]
+    svg = exceedance_svg(hot, result["temperature_limit_K"], raw.get("title", ""))
+    return atomic_write_text(out / "exceedance.svg", svg)

@@ -1,0 +1,62 @@
+"""The tube simulator as a sweep evaluator (runs inside the workers).
+
+``TubeEvaluator()(raw_case, case_dir)`` validates the case with the applied
+values, builds the model with the species data cached once per worker process
+(:func:`simulator.sweeps.execute.worker_cache`; Cantera is never shipped per
+task) and solves it.
+
+The design temperature limit does not stop sweep runs: a runaway map and an
+exceedance probability need the true hot spot. Runs stop only at an internal
+guard of T_feed + 3 dT_ad + 500 K (status "stopped"; its hot spot is then a
+lower bound, recorded as the guard temperature).
+"""
+import dataclasses
+import math
+
+from simulator.sweeps.execute import worker_cache
+
+
+def _species(case):
+    from simulator.thermo.species_data import build_species_data
+
+    key = ("species", case.thermo.species_path, case.species, case.thermo.custom)
+    return worker_cache(key, lambda: build_species_data(case.species, case.thermo))
+
+
+class TubeEvaluator:
+    """Picklable evaluator: one case dict in, one results row out."""
+
+    seconds_per_case = 0.01
+
+    def __call__(self, raw_case, case_dir):
+        from simulator.case.load import load_case_dict
+        from simulator.model.build import build_model
+        from simulator.solve.integrate import simulate
+
+        case = load_case_dict(raw_case, source_path="", case_dir=str(case_dir))
+        species = _species(case)
+        model = build_model(case, species=species)
+        guard = _guard(case, model)
+        case = dataclasses.replace(case, design=dataclasses.replace(case.design, temperature_limit=guard))
+        result = simulate(case, model=model)
+        if result.status == "failed":
+            raise RuntimeError(result.termination)
+        return {
+            "status": result.status,
+            "hot_spot_temperature_K": result.hot_spot["temperature_K"],
+            "hot_spot_position_m": result.hot_spot["position_m"],
+            "outlet_conversion": result.outlet_conversion,
+            "outlet_temperature_K": float(result.T[-1]),
+            "outlet_pressure_Pa": float(result.P[-1]),
+            "error": None if result.status == "completed" else result.termination,
+        }
+
+
+def _guard(case, model):
+    """Internal runaway guard temperature, [K]."""
+    from simulator.model.adiabatic import adiabatic_rise
+
+    n = model.n
+    rise, _ = adiabatic_rise(model.y0[:n], case.feed.temperature, model.args[4], model.key_index, model.args[2])
+    rise = rise if math.isfinite(rise) and rise > 0 else 0.0
+    return case.feed.temperature + 3.0 * rise + 500.0

@@ -1,0 +1,106 @@
+"""`tubesim sweep` and `tubesim uncertainty` with the real tube simulator.
+
+* The runaway boundary found on a sweep grid agrees with the Morbidelli-Varma critical feed
+  fraction of the published o-xylene tube (runaway.md section 2: 0.01777 atm, reproduction of
+  Froment 1967 under the Morbidelli-Varma 1988 criterion).
+* The Monte Carlo estimator on a case with a known answer: the coolant temperature uniform over a
+  range that crosses the sharp runaway threshold, so the exact exceedance probability is the
+  fraction of the range above the threshold (a property of the uniform distribution, analytic).
+* Dask and the local pool give identical results (real LocalCluster on loopback).
+"""
+import csv
+import json
+import tomllib
+
+import numpy as np
+import pytest
+
+from simulator import load_case_dict, simulate
+from simulator.cli import main
+from simulator.sweeps.boundary import boundary_along
+
+CASE = "froment1967_oxylene_packed_tube.toml"
+
+
+def _rows(path):
+    with open(path) as handle:
+        return list(csv.DictReader(handle))
+
+
+@pytest.mark.published("morbidelli_varma1988", "boundary on a sweep grid of the Froment (1967) tube, 0.01777 atm")
+def test_sweep_boundary_matches_the_morbidelli_varma_critical_value(cases_dir, tmp_path):
+    out = tmp_path / "sweep"
+    assert main(["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.0172:0.0184:25",
+                 "--out", str(out)]) == 0
+    rows = _rows(out / "results.csv")
+    assert len(rows) == 25 and all(r["status"] == "completed" for r in rows)
+    x = np.array([float(r["feed.mole_fractions.OX"]) for r in rows])
+    T = np.array([float(r["hot_spot_temperature_K"]) for r in rows])
+    order = np.argsort(x)
+    x_c, s_max = boundary_along(x[order], T[order])
+    assert x_c == pytest.approx(0.01777, abs=5e-5)      # grid spacing 5e-5, parabola through the peak
+    assert s_max > 10
+    assert (out / "hot_spot_sweep.svg").read_text().startswith("<?xml")
+
+
+def test_sweep_map_writes_svg_and_resumes_without_recomputing(cases_dir, tmp_path):
+    out = tmp_path / "map"
+    argv = ["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.014:0.019:4",
+            "--vary", "heat.coolant_temperature=620 K:635 K:3", "--out", str(out)]
+    assert main(argv) == 0
+    first = (out / "results.csv").read_text()
+    assert len(_rows(out / "results.csv")) == 12
+    assert "runaway boundary" in (out / "runaway_map.svg").read_text()
+    assert main(argv) == 0                                   # everything already done: nothing recomputed
+    assert (out / "results.csv").read_text() == first
+
+
+def _exact_probability(cases_dir, lo, hi, limit):
+    """Fraction of [lo, hi] of coolant temperature whose hot spot exceeds the limit (bisection)."""
+    raw = tomllib.loads((cases_dir / CASE).read_text())
+    raw["design"]["temperature_limit"] = "3000 K"
+
+    def hot(Tc):
+        raw["heat"]["coolant_temperature"] = f"{Tc!r} K"
+        return simulate(load_case_dict(raw, str(cases_dir / CASE))).hot_spot["temperature_K"]
+
+    a, b = lo, hi
+    assert hot(a) < limit < hot(b)
+    while b - a > 1e-4:
+        m = 0.5 * (a + b)
+        a, b = (m, b) if hot(m) < limit else (a, m)
+    return (hi - 0.5 * (a + b)) / (hi - lo)
+
+
+def test_monte_carlo_known_answer(cases_dir, tmp_path):
+    text = (cases_dir / CASE).read_text().replace('temperature_limit = "1200 K"', 'temperature_limit = "800 K"')
+    text += '\n[[uncertainty]]\nparameter = "heat.coolant_temperature"\ndistribution = "uniform"\n' \
+            'low = "620 K"\nhigh = "640 K"\n'
+    path = tmp_path / "mc.toml"
+    path.write_text(text)
+    n = 120
+    assert main(["uncertainty", str(path), "--samples", str(n), "--seed", "11", "--out", str(tmp_path / "mc")]) == 0
+    data = json.loads((tmp_path / "mc" / "uncertainty.json").read_text())
+    p = data["probability_exceeding_limit"]
+    exact = _exact_probability(cases_dir, 620.0, 640.0, 800.0)
+    # Latin hypercube in one dimension puts exactly one sample in each 1/n stratum: |error| <= 1/n
+    assert abs(p["estimate"] - exact) <= 1.0 / n + 1e-9
+    assert p["interval"][0] <= exact <= p["interval"][1]
+    assert data["samples"]["seed"] == 11
+    assert (tmp_path / "mc" / "exceedance.svg").exists()
+    assert data["rank_correlation_with_hot_spot"]["heat.coolant_temperature"]["spearman_rho"] > 0.9
+
+
+def test_dask_and_local_pool_give_identical_results(cases_dir, tmp_path):
+    distributed = pytest.importorskip("distributed")
+    argv = ["sweep", str(cases_dir / CASE), "--vary", "heat.coolant_temperature=620 K:640 K:6", "--batch-size", "3"]
+    assert main(argv + ["--out", str(tmp_path / "local")]) == 0
+    with distributed.LocalCluster(n_workers=2, threads_per_worker=1, host="127.0.0.1", dashboard_address=None,
+                                  processes=True) as cluster:
+        assert main(argv + ["--out", str(tmp_path / "dask"), "--scheduler", cluster.scheduler_address]) == 0
+    assert (tmp_path / "local" / "results.csv").read_text() == (tmp_path / "dask" / "results.csv").read_text()
+
+
+def test_uncertainty_without_entries_is_a_case_error(cases_dir, tmp_path, capsys):
+    assert main(["uncertainty", str(cases_dir / CASE), "--samples", "4", "--out", str(tmp_path)]) == 2
+    assert "no [[uncertainty]] entries" in capsys.readouterr().err
