@@ -66,8 +66,10 @@ def registry():
     """The one pint UnitRegistry of tubesim (imported on first use; pint is slow to import)."""
     import pint
 
-    ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
-    return ureg
+    try:  # the parsed definitions are cached on disk (~0.02 s instead of ~0.2 s per start)
+        return pint.UnitRegistry(autoconvert_offset_to_baseunit=False, cache_folder=":auto:")
+    except OSError:  # no writable cache folder: build it in memory
+        return pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
 
 
 def _quantity(text, where):

@@ -10,6 +10,7 @@ import numpy as np
 
 from simulator.errors import CaseError, ThermoError
 from simulator.model import kernel as K
+from simulator.model.adiabatic import adiabatic_rise
 from simulator.thermo.critical import critical_constants
 from simulator.thermo.species_data import SpeciesData, build_species_data, mixture_viscosity
 from simulator.units import R
@@ -38,6 +39,7 @@ class Model:
     feed_molar_flow: float     # [mol/s] whole reactor
     viscosity_note: str
     critical_sources: tuple    # where each species' critical constants came from (or "")
+    adiabatic: tuple = (float("nan"), {})   # (rise [K], info) for complete conversion of the key species
 
     @property
     def n(self):
@@ -149,9 +151,11 @@ def build_model(case, species=None, constant_moles=False):
     scale = np.concatenate([np.full(n, Ft0), [case.feed.temperature, case.feed.pressure, max(Tc0, 1.0),
                                               cp_scale]])
     args = (ip, fp, np.ascontiguousarray(species.nasa7), species.molar_mass.copy(), nu, ordr, rexp, rx, ads, crit)
+    key = index[case.design.key_species]
     return Model(case=case, species=species, args=args, y0=y0, scale=scale,
-                 key_index=index[case.design.key_species], count=tube.count, area=area,
-                 feed_molar_flow=F_total, viscosity_note=note, critical_sources=tuple(crit_sources))
+                 key_index=key, count=tube.count, area=area,
+                 feed_molar_flow=F_total, viscosity_note=note, critical_sources=tuple(crit_sources),
+                 adiabatic=adiabatic_rise(F0, case.feed.temperature, nu, key, args[2]))
 
 
 def _viscosity_law(case, species, x0):

@@ -357,3 +357,29 @@ def rhs_odeint(y, z, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit):
     out = np.empty(y.shape[0])
     rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, out)
     return out
+
+
+@njit(cache=True)
+def derivative_profile(zs, ys, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit):
+    """dy/dz at every output point, (N, n_state) (one compiled loop instead of N Python calls)."""
+    out = np.empty_like(ys)
+    for k in range(zs.shape[0]):
+        rhs(zs[k], ys[k], ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, out[k])
+    return out
+
+
+@njit(cache=True)
+def compressibility_profile(T, P, F, crit):
+    """Peng-Robinson Z at every point of a profile; F (N, n) molar flows of the species in crit."""
+    N = T.shape[0]
+    n = F.shape[1]
+    out = np.empty(N)
+    x = np.empty(n)
+    for k in range(N):
+        Ft = 0.0
+        for i in range(n):
+            Ft += max(F[k, i], 0.0)
+        for i in range(n):
+            x[i] = max(F[k, i], 0.0) / Ft
+        out[k] = pr_departure(T[k], P[k], x, crit)[0]
+    return out

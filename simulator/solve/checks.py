@@ -78,12 +78,9 @@ def compressibility_profile(model, ys):
     present = F.max(axis=0) > 0
     if not np.all(np.isfinite(crit[present])):
         return np.full(len(ys), np.nan)
-    out = np.empty(len(ys))
-    sub = crit[present]
-    for k in range(len(ys)):
-        x = F[k, present] / F[k, present].sum()
-        out[k] = K.pr_departure(ys[k, n], ys[k, n + 1], x, sub)[0]
-    return out
+    sub = np.ascontiguousarray(crit[present])
+    return K.compressibility_profile(np.ascontiguousarray(ys[:, n]), np.ascontiguousarray(ys[:, n + 1]),
+                                     np.ascontiguousarray(F[:, present]), sub)
 
 
 def range_warnings(model, ys):

@@ -18,6 +18,7 @@ A failed integration (solver error, non-finite state) gives a Result with
 ``status = "failed"`` and where and why in ``termination``; callers treat it
 as a failure, never as a design result.
 """
+import functools
 import math
 import time
 import warnings
@@ -28,7 +29,6 @@ from scipy.integrate import ODEintWarning, odeint
 from scipy.optimize import brentq
 
 from simulator.model import kernel as K
-from simulator.model.adiabatic import adiabatic_rise
 from simulator.model.build import build_model
 from simulator.results import Result
 from simulator.solve.checks import closure, compressibility_profile, range_warnings
@@ -36,6 +36,7 @@ from simulator.solve.checks import closure, compressibility_profile, range_warni
 PRESSURE_FLOOR = 0.01   # fraction of the feed pressure below which the run stops
 
 
+@functools.lru_cache(maxsize=1)
 def versions():
     """Versions of tubesim and the numerical libraries, for provenance."""
     out = {}
@@ -210,7 +211,7 @@ def simulate(case, model=None, length=None):
     clos = closure(model, ys)
     notes += range_warnings(model, ys)
     notes += model_warnings(model, ys, zs)
-    rise, rise_info = adiabatic_rise(model.y0[:n], case.feed.temperature, model.args[4], key, model.args[2])
+    rise, rise_info = model.adiabatic
     elapsed = time.perf_counter() - started
     stats = {"method": "LSODA (scipy.integrate.odeint)", "rtol": opts.rtol, "atol_scale": opts.atol_scale,
              "output_points": int(len(zs)), "rhs_evaluations": tube.nfev, "jacobian_evaluations": tube.njev,
@@ -233,25 +234,51 @@ def _design_numbers(case, model, z):
 
 
 def _hot_spot(tube, zs, ys, n, case, stopped_by_limit):
-    """Highest temperature: interior maxima located where dT/dz changes sign + to -."""
+    """Highest temperature: interior maxima located where dT/dz changes sign + to -.
+
+    The event dT/dz = 0 is located on the dense output of the trajectory: a cubic
+    Hermite interpolant through T and the exact dT/dz (from the right-hand side) at
+    the two output points around the sign change, as ``solve_ivp`` locates events
+    on its own dense output. The state at that position is then integrated exactly
+    from the last output point, so T* is the solver's value there (an error dz in
+    the position changes T* only by T'' dz^2 / 2).
+    """
     T0 = case.feed.temperature
     if stopped_by_limit:
         return {"temperature_K": float(ys[-1, n]), "position_m": float(zs[-1]),
                 "rise_above_feed_K": float(ys[-1, n] - T0),
                 "rise_above_coolant_K": _rise_above_coolant(case, ys[-1]),
                 "located_by": "temperature limit: the run stopped there; the true maximum is higher"}
-    dTdz = np.array([tube.derivative(z, y)[n] for z, y in zip(zs, ys)])
+    dTdz = K.derivative_profile(zs, ys, *tube.model.args)[:, n]
     candidates = [(float(ys[0, n]), float(zs[0]), ys[0], "inlet (dT/dz <= 0 there)"),
                   (float(ys[-1, n]), float(zs[-1]), ys[-1], "outlet (temperature still rising)"
                    if dTdz[-1] > 0 else "outlet")]
     idx = np.nonzero((dTdz[:-1] > 0) & (dTdz[1:] <= 0))[0]
-    # refine the highest few interior maxima only
     for k in sorted(idx, key=lambda k: -max(ys[k, n], ys[k + 1, n]))[:5]:
-        z_m, y_m = _refine(tube, zs, ys, int(k), lambda z, y: tube.derivative(z, y)[n])
+        k = int(k)
+        z_m = _hermite_stationary_point(zs[k], zs[k + 1], ys[k, n], ys[k + 1, n], dTdz[k], dTdz[k + 1])
+        y_m = tube.state_at(zs[k], ys[k], z_m)
         candidates.append((float(y_m[n]), float(z_m), y_m, "event dT/dz = 0"))
     T_max, z_max, y_max, how = max(candidates, key=lambda c: c[0])
     return {"temperature_K": T_max, "position_m": z_max, "rise_above_feed_K": T_max - T0,
             "rise_above_coolant_K": _rise_above_coolant(case, y_max), "located_by": how}
+
+
+def _hermite_stationary_point(z0, z1, T0, T1, d0, d1):
+    """Position in [z0, z1] where the cubic Hermite interpolant of T has zero slope (d0 > 0 >= d1)."""
+    h = z1 - z0
+    # p'(t)/1 on t in [0, 1]: a t^2 + b t + c with the Hermite basis derivatives
+    a = 6 * (T0 - T1) + 3 * h * (d0 + d1)
+    b = -6 * (T0 - T1) - 2 * h * (2 * d0 + d1)
+    c = h * d0
+    if abs(a) < 1e-14 * (abs(b) + abs(c)):
+        t = -c / b
+    else:
+        disc = max(b * b - 4 * a * c, 0.0)
+        roots = [(-b - math.sqrt(disc)) / (2 * a), (-b + math.sqrt(disc)) / (2 * a)]
+        inside = [r for r in roots if -1e-12 <= r <= 1 + 1e-12]
+        t = min(inside) if inside else d0 / (d0 - d1)
+    return z0 + h * min(max(t, 0.0), 1.0)
 
 
 def _rise_above_coolant(case, y):

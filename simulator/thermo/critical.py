@@ -14,13 +14,46 @@ _KMOL = 1000.0
 
 @functools.lru_cache(maxsize=1)
 def _critical_table():
-    """Cantera's bundled critical-properties.yaml as {formula: (Tc, Pc, omega)}."""
+    """Cantera's bundled critical-properties.yaml as {formula: (Tc [K], Pc [Pa], omega [-])}.
+
+    The file is a flat list of ``- name:`` entries with a ``critical-parameters``
+    block; a line scan reads it in milliseconds (a full YAML parse takes ~1 s and
+    would slow every first run). The scan is checked against the YAML parse in
+    the tests.
+    """
+    from simulator.thermo.species_data import cantera_data_file
+
+    path = cantera_data_file("critical-properties.yaml")
+    out = {}
+    name, values = None, {}
+
+    def flush():
+        if name is not None and all(k in values for k in ("critical-temperature", "critical-pressure",
+                                                           "acentric-factor")):
+            out[name] = (values["critical-temperature"], values["critical-pressure"], values["acentric-factor"])
+
+    with open(path, encoding="utf-8") as handle:
+        for line in handle:
+            stripped = line.strip()
+            if line.startswith("- name:"):
+                flush()
+                name, values = stripped.split(":", 1)[1].strip().strip("'\""), {}
+            elif name is not None and ":" in stripped:
+                key, _, text = stripped.partition(":")
+                if key in ("critical-temperature", "critical-pressure", "acentric-factor"):
+                    values[key] = float(text)
+    flush()
+    return out
+
+
+def _critical_table_yaml():
+    """The same table from a full YAML parse (slow; used by the tests as the reference)."""
     from ruamel.yaml import YAML  # shipped with Cantera's dependencies
 
     from simulator.thermo.species_data import cantera_data_file
 
-    path = cantera_data_file("critical-properties.yaml")
-    data = YAML(typ="safe").load(open(path, encoding="utf-8"))
+    with open(cantera_data_file("critical-properties.yaml"), encoding="utf-8") as handle:
+        data = YAML(typ="safe").load(handle)
     out = {}
     for entry in data.get("species", []):
         cp = entry.get("critical-parameters", {})
