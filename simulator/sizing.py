@@ -31,13 +31,16 @@ def _evaluate(case, kind):
     """Run one candidate and judge it against the requirements."""
     result = simulate(case)
     d = result.design
+    hot = result.hot_spot
     if d["reached"]:
         z = d["length_m"]
         mask = result.z <= z + 1e-12
         T_max = float(result.T[mask].max())
+        if hot["position_m"] <= z:          # the located hot spot, not only the output points
+            T_max = max(T_max, hot["temperature_K"])
         dp = float(result.P[0] - result.P[mask].min())
     else:
-        T_max = float(result.T.max())
+        T_max = max(float(result.T.max()), hot["temperature_K"])
         dp = float(result.P[0] - result.P.min())
     limits = case.design
     checks = {
@@ -56,6 +59,15 @@ def _evaluate(case, kind):
     }
 
 
+PRIORITY = ("temperature_limit", "max_pressure_drop", "target_conversion", "solver")
+
+
+def binding(cand):
+    """The requirement a candidate fails first, in order of PRIORITY (a run stopped at the temperature
+    limit also misses the target; the limit is the cause)."""
+    return next((k for k in PRIORITY if not cand["meets"].get(k, True)), None)
+
+
 def length_for_count(case):
     """(a) Length that reaches the target with the case's tube count; dict with the answer and candidates."""
     length = case.tube.length
@@ -69,16 +81,10 @@ def length_for_count(case):
             break
         length *= 4.0
     best = candidates[-1]
-    if best["meets"]["target_conversion"]:
-        failing = [k for k, ok in best["meets"].items() if not ok]
-        binding = "target_conversion" if not failing else failing[0]
-        answer = best["length_to_target_m"] if not failing else None
-    else:
-        binding = ("temperature_limit" if best["status"] == "stopped" and not best["meets"]["temperature_limit"]
-                   else "target_conversion")
-        answer = None
+    failing = binding(best)
+    answer = best["length_to_target_m"] if failing is None else None
     return {"tube_count": case.tube.count, "length_m": answer, "feasible": answer is not None,
-            "binding_constraint": binding, "volume_m3": best["volume_m3"] if answer else None,
+            "binding_constraint": failing or "target_conversion", "volume_m3": best["volume_m3"] if answer else None,
             "catalyst_mass_kg": best["catalyst_mass_kg"] if answer else None,
             "pressure_drop_Pa": best["pressure_drop_Pa"] if answer else None,
             "hot_spot_K": best["hot_spot_K"] if answer else None,
@@ -107,7 +113,7 @@ def count_for_length(case):
     if not ev(n_hi)["feasible"]:
         worst = ev(n_hi)
         return {"length_m": case.tube.length, "tube_count": None, "feasible": False,
-                "binding_constraint": next(k for k, ok in worst["meets"].items() if not ok),
+                "binding_constraint": binding(worst),
                 "note": f"no count up to {n_hi} meets the requirements; " + _why_not(worst),
                 "candidates": [cache[k] for k in sorted(cache)]}
     n_lo = 0
@@ -124,11 +130,10 @@ def count_for_length(case):
             n_lo = mid
     chosen = ev(n_hi)
     if n_lo >= 1:
-        below = ev(n_lo)
-        binding = next(k for k, ok in below["meets"].items() if not ok)
+        bound = binding(ev(n_lo))
     else:
-        binding = "none (a single tube meets every requirement)"
-    return {"length_m": case.tube.length, "tube_count": n_hi, "feasible": True, "binding_constraint": binding,
+        bound = "none (a single tube meets every requirement)"
+    return {"length_m": case.tube.length, "tube_count": n_hi, "feasible": True, "binding_constraint": bound,
             "volume_m3": chosen["volume_m3"], "catalyst_mass_kg": chosen["catalyst_mass_kg"],
             "length_to_target_m": chosen["length_to_target_m"], "pressure_drop_Pa": chosen["pressure_drop_Pa"],
             "hot_spot_K": chosen["hot_spot_K"], "note": "",

@@ -5,7 +5,8 @@
 * Energy closure: H_out - H_in - Q = 0, with the stream enthalpies evaluated
   independently of the kernel by Cantera's own species thermo (ideal-gas part)
   and Q the integrated wall heat; relative to the largest of |Q|, the reaction
-  heat sum_i (F_i,out - F_i,in) h_i(T_in) and the sensible heat change.
+  heat sum_i (F_i,out - F_i,in) h_i(T_in), the sensible heat change at the inlet
+  pressure, the pressure (departure) change and a floor of 1e-3 F_T R T_in.
 """
 import functools
 
@@ -63,10 +64,14 @@ def closure(model, ys):
     H_in = _enthalpy_cantera(model, F_in, T_in, P_in)
     H_out = _enthalpy_cantera(model, F_out, T_out, P_out)
     Q = ys[-1, n + 3]
-    reaction_heat = abs(_enthalpy_cantera(model, F_out, T_in, P_in) - H_in)
-    sensible = abs(H_out - _enthalpy_cantera(model, F_out, T_in, P_in))
-    scale = max(abs(Q), reaction_heat, sensible)
-    energy = abs(H_out - H_in - Q) / scale if scale > 0 else 0.0
+    H_ref = _enthalpy_cantera(model, F_out, T_in, P_in)
+    reaction_heat = abs(H_ref - H_in)
+    sensible = abs(_enthalpy_cantera(model, F_out, T_out, P_in) - H_ref)
+    pressure = abs(H_out - _enthalpy_cantera(model, F_out, T_out, P_in))
+    # floor: 1e-3 of the flow's thermal scale F_T R T, so a run where nothing happens is not 0/0
+    floor = 1e-3 * float(np.sum(np.abs(F_in))) * 8.314462618 * T_in
+    scale = max(abs(Q), reaction_heat, sensible, pressure, floor)
+    energy = abs(H_out - H_in - Q) / scale
     return {"elements_relative": worst, "energy_relative": energy}
 
 

@@ -109,6 +109,30 @@ def _refine(tube, zs, ys, k, g):
     return root, tube.state_at(z0, y0, root)
 
 
+def _limit_crossing(tube, zs, ys, dTdz, n, T_lim):
+    """First upward crossing of T_lim on the trajectory, also between output points; (z, y) or None.
+
+    A crossing shows either as an output point above the limit, or as a local
+    maximum between two output points (dT/dz changes sign there) whose exact
+    temperature exceeds the limit although both output points are below it.
+    """
+    k_grid = _first_crossing(ys[:, n] - T_lim)
+    last = len(zs) - 1 if k_grid is None else k_grid
+    for k in np.nonzero((dTdz[:last] > 0) & (dTdz[1:last + 1] <= 0))[0]:
+        k = int(k)
+        if max(ys[k, n], ys[k + 1, n]) >= T_lim:
+            continue
+        z_m, y_m = _locate_maximum(tube, zs, ys, k, dTdz, n)
+        if y_m[n] > T_lim:
+            z0, y0 = zs[k], ys[k]
+            root = brentq(lambda z: tube.state_at(z0, y0, z)[n] - T_lim, z0, z_m,
+                          xtol=max(1e-12, 1e-10 * (z_m - z0)), rtol=1e-12, maxiter=100)
+            return root, tube.state_at(z0, y0, root)
+    if k_grid is None:
+        return None
+    return _refine(tube, zs, ys, k_grid, lambda z, y: y[n] - T_lim)
+
+
 def simulate(case, model=None, length=None):
     """Solve the mole, energy and pressure balances along the tube.
 
@@ -157,16 +181,16 @@ def simulate(case, model=None, length=None):
         zs, ys = zs[:last_good + 1], ys[:last_good + 1]
 
     # stopping events, in order along the tube
+    dTdz = K.derivative_profile(zs, ys, *model.args)[:, n]
     T_lim = case.design.temperature_limit
     stops = []
     if not math.isnan(T_lim):
         if ys[0, n] >= T_lim:
             stops.append((0.0, ys[0], "temperature_limit"))
         else:
-            k = _first_crossing(ys[:, n] - T_lim)
-            if k is not None:
-                z_e, y_e = _refine(tube, zs, ys, k, lambda z, y: y[n] - T_lim)
-                stops.append((z_e, y_e, "temperature_limit"))
+            crossing = _limit_crossing(tube, zs, ys, dTdz, n, T_lim)
+            if crossing is not None:
+                stops.append((*crossing, "temperature_limit"))
     p_floor = PRESSURE_FLOOR * case.feed.pressure
     k = _first_crossing(p_floor - ys[:, n + 1])
     if k is not None:
@@ -177,6 +201,7 @@ def simulate(case, model=None, length=None):
         keep = zs < z_e
         zs = np.append(zs[keep], z_e)
         ys = np.vstack([ys[keep], y_e])
+        dTdz = np.append(dTdz[keep], tube.derivative(z_e, y_e)[n])
         if status != "failed":
             status = "stopped"
             if name == "temperature_limit":
@@ -204,7 +229,7 @@ def simulate(case, model=None, length=None):
         elif X[0] >= X_t:
             design.update(_design_numbers(case, model, 0.0))
 
-    hot = _hot_spot(tube, zs, ys, n, case, stopped_by_limit="temperature_limit" in events)
+    hot = _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit="temperature_limit" in events)
     Tc = ys[:, n + 2]
     Z = compressibility_profile(model, ys)
     count = model.count
@@ -233,7 +258,7 @@ def _design_numbers(case, model, z):
             "catalyst_mass_kg": None if mass is None else float(mass)}
 
 
-def _hot_spot(tube, zs, ys, n, case, stopped_by_limit):
+def _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit):
     """Highest temperature: interior maxima located where dT/dz changes sign + to -.
 
     The event dT/dz = 0 is located on the dense output of the trajectory: a cubic
@@ -249,19 +274,45 @@ def _hot_spot(tube, zs, ys, n, case, stopped_by_limit):
                 "rise_above_feed_K": float(ys[-1, n] - T0),
                 "rise_above_coolant_K": _rise_above_coolant(case, ys[-1]),
                 "located_by": "temperature limit: the run stopped there; the true maximum is higher"}
-    dTdz = K.derivative_profile(zs, ys, *tube.model.args)[:, n]
     candidates = [(float(ys[0, n]), float(zs[0]), ys[0], "inlet (dT/dz <= 0 there)"),
                   (float(ys[-1, n]), float(zs[-1]), ys[-1], "outlet (temperature still rising)"
                    if dTdz[-1] > 0 else "outlet")]
     idx = np.nonzero((dTdz[:-1] > 0) & (dTdz[1:] <= 0))[0]
     for k in sorted(idx, key=lambda k: -max(ys[k, n], ys[k + 1, n]))[:5]:
-        k = int(k)
-        z_m = _hermite_stationary_point(zs[k], zs[k + 1], ys[k, n], ys[k + 1, n], dTdz[k], dTdz[k + 1])
-        y_m = tube.state_at(zs[k], ys[k], z_m)
+        z_m, y_m = _locate_maximum(tube, zs, ys, int(k), dTdz, n)
         candidates.append((float(y_m[n]), float(z_m), y_m, "event dT/dz = 0"))
     T_max, z_max, y_max, how = max(candidates, key=lambda c: c[0])
     return {"temperature_K": T_max, "position_m": z_max, "rise_above_feed_K": T_max - T0,
             "rise_above_coolant_K": _rise_above_coolant(case, y_max), "located_by": how}
+
+
+def _locate_maximum(tube, zs, ys, k, dTdz, n, tolerance=1e-6):
+    """Root of dT/dz in [zs[k], zs[k+1]] (d > 0 at k, <= 0 at k+1); returns (z, exact state).
+
+    First guess from the cubic Hermite interpolant; the slope d of the exact state there
+    tells how good the guess is: near a maximum the temperature missed is about
+    d^2 / (2 |T''|), with T'' from the two output slopes. Below ``tolerance`` K the guess
+    stands; otherwise (a peak much sharper than the output spacing) Brent's method on
+    re-integrated states finishes the job inside the bracket the guess leaves.
+    """
+    z0, z1 = zs[k], zs[k + 1]
+    z_m = _hermite_stationary_point(z0, z1, ys[k, n], ys[k + 1, n], dTdz[k], dTdz[k + 1])
+    y_m = tube.state_at(z0, ys[k], z_m)
+    d_m = tube.derivative(z_m, y_m)[n]
+    curvature = max(abs(dTdz[k + 1] - dTdz[k]) / (z1 - z0), 1e-300)
+    if d_m * d_m / (2.0 * curvature) <= tolerance:
+        return z_m, y_m
+    lo, hi = (z_m, z1) if d_m > 0 else (z0, z_m)
+    if hi <= lo:
+        return z_m, y_m
+
+    def slope(z):
+        return tube.derivative(z, tube.state_at(z0, ys[k], z))[n]
+
+    if slope(lo) * slope(hi) > 0:
+        lo, hi = z0, z1
+    root = brentq(slope, lo, hi, xtol=max(1e-12, 1e-10 * (z1 - z0)), rtol=1e-12, maxiter=100)
+    return root, tube.state_at(z0, ys[k], root)
 
 
 def _hermite_stationary_point(z0, z1, T0, T1, d0, d1):

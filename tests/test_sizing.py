@@ -1,0 +1,161 @@
+"""Sizing: length for the given tube count, smallest tube count for the given length.
+
+Kinds of check (STYLE.md section 8): invariant only. Each answer of
+``simulator.sizing.size`` is checked against direct ``simulate`` runs of case
+files written here with the answer (and the answer minus one tube): the length
+is the target-crossing position of a longer tube; the count meets every
+requirement and one tube fewer does not; the requirement that decides is named.
+
+The case is a small cooled packed bed (custom A => B in N2, invented data) that
+runs in milliseconds.
+"""
+import json
+
+import pytest
+
+from simulator import load_case, simulate
+from simulator.cli import main
+from simulator.sizing import size
+
+TARGET = 0.9
+
+
+def _case(length="2 m", count=10, extra="", solver=""):
+    return f'''title = "Sizing: cooled packed bed, A => B"
+
+[thermo]
+species_file = "gri30.yaml"
+
+[thermo.custom.A]
+molar_mass = "28 g/mol"
+cp = "35 J/(mol*K)"
+enthalpy_of_formation = "0 kJ/mol"
+
+[thermo.custom.B]
+molar_mass = "28 g/mol"
+cp = "35 J/(mol*K)"
+enthalpy_of_formation = "-40 kJ/mol"
+
+[[reactions]]
+equation = "A => B"
+pre_exponential = "2e3 m^3/(kg*s)"
+activation_energy = "60 kJ/mol"
+per = "catalyst-mass"
+
+[feed]
+temperature = "500 K"
+pressure = "5 bar"
+molar_flow = "1 mol/s"
+mole_fractions = {{ A = 0.1, N2 = 0.9 }}
+
+[tube]
+length = "{length}"
+inner_diameter = "30 mm"
+count = {count}
+
+[bed]
+particle_diameter = "3 mm"
+void_fraction = 0.40
+bulk_density = "1000 kg/m^3"
+
+[heat]
+mode = "constant-coolant"
+overall_coefficient = "150 W/(m^2*K)"
+coolant_temperature = "500 K"
+
+[pressure_drop]
+model = "ergun"
+viscosity = "2.5e-5 Pa*s"
+
+[design]
+key_species = "A"
+target_conversion = {TARGET!r}
+{extra}
+{solver}'''
+
+
+def _run(write_case, name, **fields):
+    return simulate(load_case(write_case(_case(**fields), name=name)))
+
+
+def _drop_at_target(write_case, name, count, **fields):
+    """Pressure drop from the inlet to the target crossing of a direct run, [Pa] (None: not reached)."""
+    full = _run(write_case, name, count=count, **fields)
+    z = full.design["length_m"]
+    if z is None:
+        return None
+    upto = simulate(full.case, length=z)
+    return float(upto.P[0] - upto.P[-1])
+
+
+def test_length_for_count_is_the_target_crossing_of_a_longer_tube(write_case):
+    # The given 1 m tube is too short (about 1.8 m is needed): sizing must extend it and find the crossing.
+    report = size(load_case(write_case(_case(length="1 m"))))
+    assert report["length_m"] is not None and report["length_m"] > 1.0
+    assert report["length_for_given_count"]["binding_constraint"] == "target_conversion"
+    direct = _run(write_case, "long.toml", length="8 m")
+    assert direct.design["reached"]
+    # Both are located events on solver trajectories with rtol 1e-8: agreement far inside 1e-6.
+    assert report["length_m"] == pytest.approx(direct.design["length_m"], rel=1e-6)
+
+
+def test_tube_count_is_the_smallest_that_reaches_the_target(write_case):
+    report = size(load_case(write_case(_case())))
+    n = report["tube_count"]
+    assert n is not None and n > 1
+    assert report["binding_constraint"] == "target_conversion"
+    assert _run(write_case, "n.toml", count=n).design["reached"]
+    assert not _run(write_case, "n_minus_1.toml", count=n - 1).design["reached"]
+
+
+def test_max_pressure_drop_binds_when_tight(write_case):
+    extra = 'max_pressure_drop = "0.2 bar"'
+    report = size(load_case(write_case(_case(extra=extra))))
+    n = report["tube_count"]
+    assert n is not None
+    assert report["binding_constraint"] == "max_pressure_drop"
+    assert report["count_for_given_length"]["binding_constraint"] == "max_pressure_drop"
+    # With n tubes the target is reached within 0.2 bar; with n - 1 it is still reached (so the target
+    # does not decide) but the drop up to the target exceeds 0.2 bar.
+    drop_n = _drop_at_target(write_case, "n.toml", n)
+    drop_below = _drop_at_target(write_case, "n_minus_1.toml", n - 1)
+    assert drop_n is not None and drop_n <= 0.2e5
+    assert drop_below is not None and drop_below > 0.2e5
+    # with the case's 10 tubes no length works: the drop is too large before the target is reached
+    a = report["length_for_given_count"]
+    assert a["length_m"] is None and a["binding_constraint"] == "max_pressure_drop"
+
+
+def test_temperature_limit_binds_when_tight(write_case):
+    # The hot spot of this bed is about 526 K for every tube count that reaches the target: the
+    # balances depend on z only through z / (flow per tube), except for the small pressure drop.
+    # A 521 K limit therefore cannot be met by any length or count.
+    limit = 521.0
+    for count in (10, 100, 1000):
+        hot = _run(write_case, f"hot{count}.toml", count=count, solver="[solver]\noutput_points = 20001")
+        assert hot.design["reached"] and hot.hot_spot["temperature_K"] > limit + 4.0
+    report = size(load_case(write_case(_case(extra=f'temperature_limit = "{limit!r} K"'))))
+    a = report["length_for_given_count"]
+    assert a["length_m"] is None and a["binding_constraint"] == "temperature_limit"
+    # Any count claimed feasible must really keep the hot spot (located on a fine grid) below the limit.
+    n = report["tube_count"]
+    if n is not None:
+        check = _run(write_case, "claimed.toml", count=n, solver="[solver]\noutput_points = 20001")
+        assert check.hot_spot["temperature_K"] < limit, (
+            f"sizing claims {n} tubes meet temperature_limit {limit} K, but the hot spot of that design is "
+            f"{check.hot_spot['temperature_K']:.2f} K at z = {check.hot_spot['position_m']:.4g} m")
+    assert report["tube_count"] is None
+    assert report["binding_constraint"] == "temperature_limit"
+
+
+def test_cli_writes_sizing_json(write_case, tmp_path):
+    path = write_case(_case())
+    out = tmp_path / "out"
+    assert main(["size", str(path), "--out", str(out)]) == 0
+    written = json.loads((out / "sizing.json").read_text())
+    assert {"length_m", "tube_count", "binding_constraint", "candidates"} <= set(written)
+    direct = size(load_case(path))
+    assert written["length_m"] == pytest.approx(direct["length_m"], rel=1e-12)
+    assert written["tube_count"] == direct["tube_count"]
+    assert written["binding_constraint"] == direct["binding_constraint"]
+    assert len(written["candidates"]) == len(direct["candidates"]) > 0
