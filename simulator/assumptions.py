@@ -62,7 +62,9 @@ def _change(case, variant, reference, label_variant, label_reference):
     v, r = variant[key], reference[key]
     if v is None or r is None:
         missing = [lab for lab, val in ((label_variant, v), (label_reference, r)) if val is None]
-        return None, (f"the {' and the '.join(missing)} model does not reach the target conversion in the given "
+        verb = "does" if len(missing) == 1 else "do"
+        return None, (f"the {' and the '.join(missing)} model{'s' if len(missing) > 1 else ''} {verb} not reach "
+                      f"the target conversion in the given "
                       f"tube; outlet conversions {label_variant} {variant['outlet_conversion']:.4f}, "
                       f"{label_reference} {reference['outlet_conversion']:.4f}")
     return (v - r) / r * 100.0, f"{name} to reach the target"

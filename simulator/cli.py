@@ -79,6 +79,8 @@ def build_parser():
 def main(argv=None):
     """Entry point of ``tubesim``; returns the exit code."""
     parser = build_parser()
+    global _ARGV
+    _ARGV = list(sys.argv[1:] if argv is None else argv)
     try:
         args = parser.parse_args(argv)
     except SystemExit as exc:  # argparse exits 2 on usage errors, 0 on --help
@@ -193,10 +195,13 @@ def _report(args):
     return 0
 
 
+_ARGV = []
+
+
 def _command_line():
     import shlex
 
-    return "tubesim " + " ".join(shlex.quote(a) for a in sys.argv[1:])
+    return "tubesim " + " ".join(shlex.quote(a) for a in _ARGV)
 
 
 def _raw_case(path):

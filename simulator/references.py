@@ -40,6 +40,21 @@ REFERENCES = {
                       "consumption,\" Combust. Flame, vol. 8, pp. 97-103, 1964.",
     "morbidelli_varma1988": "M. Morbidelli, A. Varma, \"A generalized criterion for parametric sensitivity: "
                             "application to thermal explosion theory,\" Chem. Eng. Sci., vol. 43, pp. 91-102, 1988.",
+    "thomas_bowes1961": "P.H. Thomas, P.C. Bowes, \"Some aspects of the self-heating and ignition of solid "
+                        "cellulosic materials,\" Br. J. Appl. Phys., vol. 12, p. 222, 1961.",
+    "froment1967": "G.F. Froment, \"Fixed bed catalytic reactors - current design status,\" Ind. Eng. Chem., "
+                   "vol. 59, no. 2, pp. 18-27, 1967.",
+    "clopper_pearson1934": "C.J. Clopper, E.S. Pearson, \"The use of confidence or fiducial limits illustrated in "
+                           "the case of the binomial,\" Biometrika, vol. 26, no. 4, pp. 404-413, 1934.",
+    "wilson1927": "E.B. Wilson, \"Probable inference, the law of succession, and statistical inference,\" "
+                  "J. Am. Stat. Assoc., vol. 22, no. 158, pp. 209-212, 1927.",
+    "mckay1979": "M.D. McKay, R.J. Beckman, W.J. Conover, \"A comparison of three methods for selecting values of "
+                 "input variables in the analysis of output from a computer code,\" Technometrics, vol. 21, "
+                 "no. 2, pp. 239-245, 1979.",
+    "sobol1967": "I.M. Sobol', \"On the distribution of points in a cube and the approximate evaluation of "
+                 "integrals,\" USSR Comput. Math. Math. Phys., vol. 7, no. 4, pp. 86-112, 1967.",
+    "spearman1904": "C. Spearman, \"The proof and measurement of association between two things,\" Am. J. "
+                    "Psychol., vol. 15, no. 1, pp. 72-101, 1904.",
     "levenspiel1999": "O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5.",
 }
 

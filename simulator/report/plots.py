@@ -166,7 +166,8 @@ def _temperature_unit(temperature_unit):
 
 
 def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_limit=None,
-                             target_position=None, *, temperature_unit="K", title=None):
+                             target_position=None, *, temperature_unit="K", title=None,
+                             coolant_label="Coolant temperature"):
     """Axial temperature profile with hot spot, limit and target position marked.
 
     Parameters
@@ -187,6 +188,9 @@ def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_li
         Unit shown on the axis; inputs are always kelvin, [-]
     title : str, optional
         Figure title, drawn literally (may be case text), [-]
+    coolant_label : str
+        Legend text of the coolant curve, e.g. "Heating-medium temperature"
+        for a heated tube, drawn literally, [-]
 
     Returns
     -------
@@ -210,7 +214,7 @@ def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_li
             if coolant.ndim == 0:
                 coolant = np.full(z.size, float(coolant))
             coolant = _as_1d("coolant_T", coolant, z.size)
-            ax.plot(z, coolant + offset, label="Coolant temperature",
+            ax.plot(z, coolant + offset, label=_literal(coolant_label, 40),
                     markevery=_markevery(z.size), **_style(1))
         if temperature_limit is not None:
             ax.axhline(float(temperature_limit) + offset, color="#a1331b", linestyle=(0, (6, 2)),
@@ -233,7 +237,7 @@ def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_li
     return _to_uri(fig, _salt("temperature", z, T, coolant_T if coolant_T is None
                                  else np.asarray(coolant_T, dtype=float).reshape(-1),
                                  hot_spot, temperature_limit, target_position,
-                                 temperature_unit, title))
+                                 temperature_unit, title, coolant_label))
 
 
 def profile_lines_plot(z, series, ylabel, title=None, *, xlabel="Axial position z [m]",

@@ -289,7 +289,10 @@ def _profile_derivatives(result, model):
     n = model.n
     key = model.key_index
     F0k = result.F[0, key] / count
-    mask = (result.z <= result.hot_spot["position_m"] + 1e-12) & (result.conversion < 1.0 - 1e-9)
+    # the rising branch and a few points past the hot spot (so the tests see the maximum), while the
+    # conversion is still below 1 (dT/dX is undefined at complete conversion)
+    spacing = result.z[-1] / max(len(result.z) - 1, 1)
+    mask = (result.z <= result.hot_spot["position_m"] + 3.5 * spacing) & (result.conversion < 1.0 - 1e-9)
     idx = np.flatnonzero(mask)
     d = np.array([K.rhs_odeint(np.concatenate([result.F[k] / count, [result.T[k], result.P[k], result.Tc[k],
                                                                     result.Q[k] / count]]), result.z[k], *model.args)

@@ -1,0 +1,149 @@
+"""``tubesim report``: case file -> design-basis report (report.html, report.pdf).
+
+:func:`write_design_report` loads the case, runs what the report shows (the
+design run, the assumption check and, for a cooled exothermic tube, the
+runaway screening), builds the context (:mod:`simulator.report.context`) and
+writes the documents atomically (:func:`simulator.report.pdf.write_report`).
+
+The design run is solved once here for its profiles;
+:func:`~simulator.assumptions.check_assumptions` and
+:func:`~simulator.screening.screen.screen` solve the case again inside (a few
+tens of milliseconds each, against seconds for the screening's sensitivity
+scans), so nothing is gained by threading one result through them.
+"""
+import shlex
+import time
+from pathlib import Path
+
+from simulator.errors import IntegrationError, ReportError, SimulatorError
+
+
+def _screening(case):
+    """(screening dict or None, reason when None)."""
+    from simulator.errors import CaseError
+    from simulator.screening.screen import screen
+
+    try:
+        return screen(case), None
+    except CaseError as err:
+        # not a cooled tube, or no exothermic path: the report says why
+        reason = " ".join(err.problems)
+        prefix = f"{case.source_path}: "
+        return None, reason[len(prefix):] if case.source_path and reason.startswith(prefix) else reason
+
+
+def compute_report_inputs(case):
+    """Run everything the report shows for ``case`` and time each part.
+
+    Parameters
+    ----------
+    case : simulator.case.schema.Case
+        The validated case, [-]
+
+    Returns
+    -------
+    dict
+        ``result`` (Result), ``assumptions`` (dict), ``screening`` (dict or
+        None), ``screening_reason`` (str or None) and ``timings`` (wall seconds
+        per part), [-]
+
+    Raises
+    ------
+    IntegrationError
+        If the design run fails (the report of a failed run would be no design basis).
+    """
+    from simulator.assumptions import check_assumptions
+    from simulator.solve.integrate import simulate
+
+    timings = {}
+    started = time.perf_counter()
+    result = simulate(case)
+    timings["simulate"] = time.perf_counter() - started
+    if result.status == "failed":
+        raise IntegrationError(result.termination)
+    started = time.perf_counter()
+    assumptions = check_assumptions(case)
+    timings["assumptions"] = time.perf_counter() - started
+    started = time.perf_counter()
+    screening, reason = _screening(case)
+    timings["screening"] = time.perf_counter() - started
+    return {"result": result, "assumptions": assumptions, "screening": screening,
+            "screening_reason": reason, "timings": timings}
+
+
+def default_command_line(case_path, out_dir, pdf=True):
+    """The ``tubesim report`` command equivalent to a call of :func:`write_design_report`.
+
+    Parameters
+    ----------
+    case_path : str or pathlib.Path
+        Case file as given, [-]
+    out_dir : str or pathlib.Path
+        Output folder as given, [-]
+    pdf : bool
+        Whether the PDF was written, [-]
+
+    Returns
+    -------
+    str
+        Shell-quoted command text, [-]
+    """
+    words = ["tubesim", "report", str(case_path), "--out", str(out_dir)] + ([] if pdf else ["--no-pdf"])
+    return " ".join(shlex.quote(w) for w in words)
+
+
+def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timings=None):
+    """Solve a case and write its design-basis report.
+
+    Parameters
+    ----------
+    case_path : str or pathlib.Path
+        Case file (TOML), [-]
+    out_dir : str or pathlib.Path
+        Output folder, created if needed, [-]
+    pdf : bool
+        Also write ``report.pdf`` (A4), [-]
+    command_line : str, optional
+        Command that asked for the report, printed under Provenance; default
+        the equivalent ``tubesim report`` command, [-]
+    timings : dict, optional
+        Filled with the wall time of each step (simulate, assumptions,
+        screening, context, render), [s]
+
+    Returns
+    -------
+    dict of str to pathlib.Path
+        ``{"html": path}`` and, with ``pdf``, ``{"pdf": path}``, [-]
+
+    Raises
+    ------
+    CaseError
+        If the case file is missing or invalid.
+    IntegrationError
+        If the design run fails.
+    ReportError
+        If the report cannot be built, rendered or written.
+    """
+    from simulator.case.load import load_case
+    from simulator.report.context import build_context
+    from simulator.report.pdf import write_report
+
+    case = load_case(case_path)
+    computed = compute_report_inputs(case)
+    timings = {} if timings is None else timings
+    timings.update(computed["timings"])
+    if command_line is None:
+        command_line = default_command_line(case_path, out_dir, pdf)
+    started = time.perf_counter()
+    try:
+        context = build_context(case, computed["result"], computed["assumptions"], computed["screening"],
+                                command_line, screening_reason=computed["screening_reason"])
+    except SimulatorError:
+        raise
+    except (KeyError, TypeError, ValueError, ArithmeticError) as err:
+        raise ReportError(f"report context of {case_path}: {type(err).__name__}: {err}") from err
+    timings["context"] = time.perf_counter() - started
+    started = time.perf_counter()
+    written = write_report(context, Path(out_dir), pdf=pdf)
+    timings["render"] = time.perf_counter() - started
+    return written
