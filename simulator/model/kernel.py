@@ -157,6 +157,82 @@ def enthalpy_flow(F, T, P, nasa, ip, crit):
 
 
 @njit(cache=True)
+def _mixture(T, P, F, ip, fp, crit):
+    """(1/F_T for the mole fractions, total concentration P/(Z R T), Z); no allocation for an ideal gas."""
+    n = ip[I_N]
+    Ft = 0.0
+    for i in range(n):
+        Ft += max(F[i], 0.0)
+    if ip[I_FROZEN] == 1:  # assumption check: concentrations as if the total moles did not change
+        Ft = fp[F_FT0]
+    inv = 1.0 / Ft
+    Z = 1.0
+    if ip[I_EOS] == EOS_PR:
+        x = np.empty(n)
+        for i in range(n):
+            x[i] = max(F[i], 0.0) * inv
+        Z = pr_departure(T, P, x, crit)[0]
+    return inv, P / (Z * R * T), Z
+
+
+@njit(cache=True)
+def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads):
+    """Rate of reaction j per unit reactor volume, [mol/(m^3*s)].
+
+    Activities are y_i P (partial pressure, [Pa]) or y_i P/(Z R T) (concentration,
+    [mol/m^3]) with y_i = max(F_i, 0)/F_T, written as ``max(F_i, 0) * inv * scale``.
+    A reversible reaction adds -(k/K) prod a^(alpha + nu), K from the NASA rows.
+    """
+    n = ip[I_N]
+    act_is_p = rx[j, X_ACT] > 0.5
+    scale = (P if act_is_p else ctot) * inv
+    k = rx[j, X_A] * math.exp(-rx[j, X_E] / (R * T))
+    if rx[j, X_B] != 0.0:
+        k *= T ** rx[j, X_B]
+    fwd = k
+    for i in range(n):
+        o = ordr[i, j]
+        if o != 0.0:
+            a = max(F[i], 0.0) * scale
+            if o == 1.0:
+                fwd *= a
+            else:
+                fwd *= a ** o
+    r = fwd
+    if rx[j, X_REV] > 0.5:
+        dG_RT = 0.0
+        for i in range(n):
+            v = nu[i, j]
+            if v != 0.0:
+                dG_RT += v * (_h_RT(nasa[i], T) - _s_R(nasa[i], T))
+        # K in the activity basis: K0 * (P0/(R T))^dn for concentrations, K0 * P0^dn for pressures
+        ref = P_STANDARD if act_is_p else P_STANDARD / (R * T)
+        lnK = -dG_RT + rx[j, X_DN] * math.log(ref)
+        rev = k * math.exp(-lnK)
+        for i in range(n):
+            e = rexp[i, j]
+            if e != 0.0:
+                a = max(F[i], 0.0) * scale
+                if e == 1.0:
+                    rev *= a
+                else:
+                    rev *= a ** e
+        r = fwd - rev
+    nads = int(rx[j, X_NADS])
+    if nads > 0:
+        den = 1.0
+        for t in range(nads):
+            term = ads[j, t, 0] * math.exp(-ads[j, t, 1] / (R * T))
+            for i in range(n):
+                e = ads[j, t, 2 + i]
+                if e != 0.0:
+                    term *= (max(F[i], 0.0) * scale) ** e
+            den += term
+        r /= den ** rx[j, X_NDEN]
+    return r * rx[j, X_BASIS]
+
+
+@njit(cache=True)
 def reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, out):
     """Rates of all reactions per unit reactor volume, [mol/(m^3*s)], written to ``out``.
 
@@ -164,61 +240,9 @@ def reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, out):
     ``ip[I_FROZEN] == 1`` mole fractions are taken as F_i / F_T,0 (the mole change
     of the reactions neglected in the concentrations), for the assumption check only.
     """
-    n = ip[I_N]
-    m = ip[I_M]
-    Ft = 0.0
-    for i in range(n):
-        Ft += max(F[i], 0.0)
-    if ip[I_FROZEN] == 1:  # assumption check: concentrations as if the total moles did not change
-        Ft = fp[F_FT0]
-    x = np.empty(n)
-    for i in range(n):
-        x[i] = max(F[i], 0.0) / Ft
-    Z = compressibility(T, P, x, ip, crit)
-    ctot = P / (Z * R * T)
-    g = np.empty(n)  # h/RT - s/R, for equilibrium constants
-    have_g = False
-    for j in range(m):
-        act_is_p = rx[j, X_ACT] > 0.5
-        k = rx[j, X_A] * math.exp(-rx[j, X_E] / (R * T))
-        if rx[j, X_B] != 0.0:
-            k *= T ** rx[j, X_B]
-        fwd = k
-        rev = 0.0
-        for i in range(n):
-            a = x[i] * (P if act_is_p else ctot)
-            o = ordr[i, j]
-            if o != 0.0:
-                fwd *= a ** o
-        if rx[j, X_REV] > 0.5:
-            if not have_g:
-                for i in range(n):
-                    g[i] = _h_RT(nasa[i], T) - _s_R(nasa[i], T)
-                have_g = True
-            dG_RT = 0.0
-            for i in range(n):
-                dG_RT += nu[i, j] * g[i]
-            # K in the activity basis: K0 * (P0/(R T))^dn for concentrations, K0 * P0^dn for pressures
-            ref = P_STANDARD if act_is_p else P_STANDARD / (R * T)
-            lnK = -dG_RT + rx[j, X_DN] * math.log(ref)
-            rev = k * math.exp(-lnK)
-            for i in range(n):
-                e = rexp[i, j]
-                if e != 0.0:
-                    rev *= (x[i] * (P if act_is_p else ctot)) ** e
-        r = fwd - rev
-        nads = int(rx[j, X_NADS])
-        if nads > 0:
-            den = 1.0
-            for t in range(nads):
-                term = ads[j, t, 0] * math.exp(-ads[j, t, 1] / (R * T))
-                for i in range(n):
-                    e = ads[j, t, 2 + i]
-                    if e != 0.0:
-                        term *= (x[i] * (P if act_is_p else ctot)) ** e
-                den += term
-            r /= den ** rx[j, X_NDEN]
-        out[j] = r * rx[j, X_BASIS]
+    inv, ctot, Z = _mixture(T, P, F, ip, fp, crit)
+    for j in range(ip[I_M]):
+        out[j] = reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads)
     return Z
 
 
@@ -237,14 +261,16 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
     T = y[n]
     P = max(y[n + 1], fp[F_PMIN])
     Tc = y[n + 2]
-    r = np.empty(m)
-    Z = reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, r)
+    inv, ctot, Z = _mixture(T, P, F, ip, fp, crit)
     area = fp[F_AREA]
     for i in range(n):
-        s = 0.0
-        for j in range(m):
-            s += nu[i, j] * r[j]
-        dydz[i] = area * s
+        dydz[i] = 0.0
+    for j in range(m):
+        r = area * reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads)
+        for i in range(n):
+            v = nu[i, j]
+            if v != 0.0:
+                dydz[i] += v * r
     heat = ip[I_HEAT]
     if heat == HEAT_CONSTANT or heat == HEAT_COCURRENT:
         qw = fp[F_U] * math.pi * fp[F_DIAM] * (Tc - T)
