@@ -21,6 +21,9 @@ def _execution_options(p):
     p.add_argument("--scheduler", default=None, metavar="ADDRESS",
                    help="Dask scheduler address, e.g. tcp://10.0.0.5:8786 (default: local process pool)")
     p.add_argument("--batch-size", type=int, default=None, help="cases per task (default: automatic, >= 25)")
+    p.add_argument("--engine", choices=("auto", "compiled", "pool"), default="auto",
+                   help="auto: the compiled batch integrator when every varied path is an operating number it "
+                        "supports and no --scheduler is given, else the process pool / Dask (default auto)")
 
 
 def build_parser():
@@ -215,16 +218,37 @@ def _raw_case(path):
 
 
 def _sweep(args):
-    from simulator.sweeps.execute import run_grid_sweep
-    from simulator.sweeps.evaluator import TubeEvaluator
+    from simulator.case.load import load_case
+    from simulator.errors import CaseError
+    from simulator.model.build import build_model
     from simulator.report.sweep_plots import write_sweep_figures
+    from simulator.sweeps.compiled_sweep import compiled_supported, run_compiled_sweep
+    from simulator.sweeps.evaluator import TubeEvaluator
+    from simulator.sweeps.execute import run_grid_sweep
+    from simulator.sweeps.paths import parse_vary
 
     raw, case_dir = _raw_case(args.case)
-    summary = run_grid_sweep(raw, case_dir, args.vary, TubeEvaluator(), args.out, scheduler=args.scheduler,
-                             batch_size=args.batch_size, progress=True)
+    specs = [parse_vary(v) for v in args.vary]
+    paths = [spec.path for spec in specs]
+    engine = args.engine
+    if engine != "pool":
+        model = build_model(load_case(args.case))
+        ok = args.scheduler is None and compiled_supported(model, paths)
+        if engine == "compiled" and not ok:
+            from simulator.sweeps.fast import unsupported_reason
+
+            why = "--scheduler sends cases to Dask" if args.scheduler else unsupported_reason(paths, model)
+            raise CaseError(f"--engine compiled: not available for this sweep ({why}); use --engine pool.")
+        engine = "compiled" if ok else "pool"
+    if engine == "compiled":
+        summary = run_compiled_sweep(raw, case_dir, specs, model, args.out, progress=True)
+    else:
+        summary = run_grid_sweep(raw, case_dir, specs, TubeEvaluator(), args.out, scheduler=args.scheduler,
+                                 batch_size=args.batch_size, progress=True)
     figures = write_sweep_figures(args.out, raw)
-    print(f"{summary.total} cases: {summary.computed} computed now, {summary.skipped} already done, "
-          f"{summary.failed} failed; {summary.elapsed:.1f} s on {summary.workers} workers")
+    unit = "threads" if engine == "compiled" else "workers"
+    print(f"{summary.total} cases ({engine} engine): {summary.computed} computed now, {summary.skipped} already "
+          f"done, {summary.failed} failed; {summary.elapsed:.1f} s on {summary.workers} {unit}")
     for path in figures:
         print(f"figure: {path}")
     print(f"results: {args.out}/results.csv, {args.out}/results.sqlite")

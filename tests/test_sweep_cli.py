@@ -93,7 +93,8 @@ def test_monte_carlo_known_answer(cases_dir, tmp_path):
 
 def test_dask_and_local_pool_give_identical_results(cases_dir, tmp_path):
     distributed = pytest.importorskip("distributed")
-    argv = ["sweep", str(cases_dir / CASE), "--vary", "heat.coolant_temperature=620 K:640 K:6", "--batch-size", "3"]
+    argv = ["sweep", str(cases_dir / CASE), "--vary", "heat.coolant_temperature=620 K:640 K:6", "--batch-size", "3",
+            "--engine", "pool"]
     assert main(argv + ["--out", str(tmp_path / "local")]) == 0
     with distributed.LocalCluster(n_workers=2, threads_per_worker=1, host="127.0.0.1", dashboard_address=None,
                                   processes=True) as cluster:
@@ -104,3 +105,34 @@ def test_dask_and_local_pool_give_identical_results(cases_dir, tmp_path):
 def test_uncertainty_without_entries_is_a_case_error(cases_dir, tmp_path, capsys):
     assert main(["uncertainty", str(cases_dir / CASE), "--samples", "4", "--out", str(tmp_path)]) == 2
     assert "no [[uncertainty]] entries" in capsys.readouterr().err
+
+
+def test_compiled_engine_agrees_with_the_pool_of_lsoda_solves(cases_dir, tmp_path):
+    # acceptance bound of the benchmark: |dT*| <= 0.05 K against per-case implicit solves
+    argv = ["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.015:0.019:5",
+            "--vary", "heat.coolant_temperature=620 K:635 K:4"]
+    assert main(argv + ["--out", str(tmp_path / "c"), "--engine", "compiled"]) == 0
+    assert main(argv + ["--out", str(tmp_path / "p"), "--engine", "pool"]) == 0
+    compiled = {r["case_id"]: r for r in _rows(tmp_path / "c" / "results.csv")}
+    pool = {r["case_id"]: r for r in _rows(tmp_path / "p" / "results.csv")}
+    assert compiled.keys() == pool.keys() and len(pool) == 20
+    for cid, r in pool.items():
+        c = compiled[cid]
+        assert c["status"] == r["status"]
+        assert float(c["hot_spot_temperature_K"]) == pytest.approx(float(r["hot_spot_temperature_K"]), abs=0.05)
+        assert float(c["outlet_conversion"]) == pytest.approx(float(r["outlet_conversion"]), abs=1e-4)
+
+
+def test_resume_may_switch_engines(cases_dir, tmp_path):
+    out = tmp_path / "mixed"
+    small = ["sweep", str(cases_dir / CASE), "--vary", "heat.coolant_temperature=620 K:635 K:4", "--out", str(out)]
+    assert main(small + ["--engine", "pool"]) == 0
+    before = (out / "results.csv").read_text()
+    assert main(small + ["--engine", "compiled"]) == 0        # nothing left to compute
+    assert (out / "results.csv").read_text() == before
+
+
+def test_compiled_engine_refuses_what_it_cannot_run(cases_dir, tmp_path, capsys):
+    code = main(["sweep", str(cases_dir / CASE), "--vary", "tube.length=2 m:3 m:2", "--out", str(tmp_path),
+                 "--engine", "compiled"])
+    assert code == 2 and "--engine compiled: not available" in capsys.readouterr().err

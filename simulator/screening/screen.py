@@ -5,6 +5,11 @@
 Morbidelli-Varma criterion, the maximum of the normalized sensitivity
 s = (phi/T*) dT*/dphi, along one operating parameter at a time.
 
+Coarse scans. The coarse sensitivity scans along feed fraction, coolant and inlet
+temperature run in one batch each through the sweep engine's compiled integrator
+(:mod:`simulator.sweeps.fast`, same tolerances); the refinement around the maximum
+of |s| uses :func:`~simulator.solve.integrate.simulate`.
+
 Numerics. Screening runs use a tight solver (rtol 1e-10, atol_scale 1e-12) so
 that s from central differences (relative step 1e-4) is smooth, and an internal
 temperature limit of T_feed + 3 dT_ad + 500 K (never the design limit, which
@@ -55,7 +60,14 @@ CAUTIONS = (
 SENSITIVITY_PARAMETERS = ("feed_mole_fraction", "inlet_temperature", "coolant_temperature",
                           "overall_coefficient", "mass_flow")
 SOLVER = {"rtol": 1e-10, "atol_scale": 1e-12}
+#: screening parameter -> sweep path of the compiled batch integrator (KEY = the key species)
+SWEEP_PATHS = {"feed_mole_fraction": "feed.mole_fractions.KEY", "coolant_temperature": "heat.coolant_temperature",
+               "inlet_temperature": "feed.temperature"}
 REL_STEP = 1e-4
+#: Smallest peak |s| taken as a runaway boundary. No published value: in the first-order reference
+#: model |s|max is 1.5 at B = 5 (no real runaway) and 8 at B = 10 (runaway.md 1.7); below about 3 the
+#: maximum is too flat to be a boundary (common practice, no source).
+S_BOUNDARY = 3.0
 
 
 class _Variants:
@@ -68,6 +80,8 @@ class _Variants:
             design=dataclasses.replace(case.design, temperature_limit=limit))
         self.base = {p: self.value(p) for p in SENSITIVITY_PARAMETERS}
         self.solves = 0
+        self.batched = 0       # solves done in batches by the compiled integrator
+        self.prefetched = {}
         self.log = []          # (parameter, value, T*) of every evaluation
 
     def value(self, name):
@@ -110,11 +124,44 @@ class _Variants:
 
     def hot_spot(self, name):
         def of(value):
-            result = self.solve(name, value)
-            T = result.hot_spot["temperature_K"] if result.status == "completed" else math.nan
+            key = (name, float(value))
+            if key in self.prefetched:
+                T = self.prefetched.pop(key)
+            else:
+                result = self.solve(name, value)
+                T = result.hot_spot["temperature_K"] if result.status == "completed" else math.nan
             self.log.append((name, float(value), T))
             return T
         return of
+
+    def prefetch(self, name, lo, hi, n_coarse, rel_step):
+        """Solve a coarse sensitivity scan in one batch through the sweep engine's compiled integrator.
+
+        The values are exactly those :func:`criteria.locate_sensitivity_maximum` will ask for
+        (phi +- rel_step |phi| on ``numpy.linspace(lo, hi, n_coarse)``); the refinement around
+        the maximum still goes through :func:`simulate`. Skipped when the compiled path does not
+        support the parameter (then every point is solved one by one).
+        """
+        path = SWEEP_PATHS.get(name, "").replace("KEY", self.case.design.key_species)
+        if not path:
+            return 0
+        from simulator.sweeps import fast
+
+        base = build_model(self.case, species=self.species)
+        if not fast.supports([path], base):
+            return 0
+        phis = []
+        for phi in np.linspace(lo, hi, n_coarse):
+            phi = float(phi)
+            h = rel_step * abs(phi)
+            phis += [phi + h, phi - h]
+        out = fast.batch_solve(base, np.array(phis)[:, None], [path], rtol=SOLVER["rtol"],
+                               atol_scale=SOLVER["atol_scale"], temperature_limit=self.case.design.temperature_limit)
+        for k, phi in enumerate(phis):
+            ok = fast.STATUS_NAMES[int(out["status"][k])] == "completed"
+            self.prefetched[(name, phi)] = float(out["hot_spot_temperature_K"][k]) if ok else math.nan
+        self.batched += len(phis)
+        return len(phis)
 
 
 def dominant_reaction(model):
@@ -228,13 +275,13 @@ def screen(case, n_coarse=21):
                       ("inlet_temperature", "inlet_temperature_K")):
         base = v.base[name]
         lo, hi = _range(name, base, case, rise)
+        v.prefetch(name, lo, hi, n_coarse, REL_STEP)
         peak = C.locate_sensitivity_maximum(v.hot_spot(name), lo, hi, n_coarse=n_coarse, rel_step=REL_STEP,
                                             xtol=1e-5)
         scans[name] = peak
-        verdict = C.morbidelli_varma_1988_verdict(base, peak, s_threshold=1.0)
+        verdict = C.morbidelli_varma_1988_verdict(base, peak, s_threshold=S_BOUNDARY)
         entry = {"value": peak.phi if peak.found and peak.decided else None,
-                 "found": bool(peak.found and peak.decided and verdict["verdict"] != "safe"
-                               or (peak.found and peak.decided and abs(peak.s_max) >= 1.0)),
+                 "found": bool(peak.found and peak.decided and abs(peak.s_max) >= S_BOUNDARY),
                  "operating_value": base, "search_range": [lo, hi], "s_max": peak.s_max,
                  "verdict": verdict["verdict"], "note": verdict.get("note", ""), "evaluations": peak.evaluations}
         if entry["found"]:
@@ -273,7 +320,8 @@ def screen(case, n_coarse=21):
         "risk": risk,
         "risk_rule": rule,
         "cautions": list(CAUTIONS),
-        "solves": v.solves + 1,
+        "solves": v.solves + v.batched + 1,
+        "solves_batched": v.batched,
         "numerics": {"rtol": SOLVER["rtol"], "atol_scale": SOLVER["atol_scale"], "relative_step": REL_STEP,
                      "internal_temperature_limit_K": limit, "coarse_points": n_coarse,
                      "undecided": {k: scans[k].reason for k in scans if scans[k].reason}},

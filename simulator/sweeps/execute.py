@@ -467,6 +467,17 @@ def fingerprint(obj):
     return hashlib.sha256(text.encode("utf-8")).hexdigest()
 
 
+def grid_meta(base_raw, specs, cases):
+    """The ``meta`` of a grid sweep's store (the same for every engine, so a resume may switch engines)."""
+    return {
+        "command": "sweep",
+        "vary": [f"{s.path}={s.values_text[0]}:{s.values_text[-1]}:{len(s.values_text)}" for s in specs],
+        "n_cases": len(cases),
+        "case_sha256": fingerprint(base_raw),
+        "plan_sha256": fingerprint(cases),
+    }
+
+
 def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=None, scheduler=None,
                    batch_size=None, progress=True):
     """Full grid over one or more case parameters: ``tubesim sweep CASE --vary ... --out DIR``.
@@ -501,13 +512,7 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
         check_vary(base_raw, spec)
     cases = grid(specs)
     out_dir = Path(out_dir)
-    meta = {
-        "command": "sweep",
-        "vary": [f"{s.path}={s.values_text[0]}:{s.values_text[-1]}:{len(s.values_text)}" for s in specs],
-        "n_cases": len(cases),
-        "case_sha256": fingerprint(base_raw),
-        "plan_sha256": fingerprint(cases),
-    }
+    meta = grid_meta(base_raw, specs, cases)
     with ResultsStore(out_dir / "results.sqlite", [s.path for s in specs], meta) as store:
         summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
                             scheduler=scheduler, batch_size=batch_size, progress=progress)
