@@ -4,8 +4,13 @@ A test that compares against the outside world carries
 ``@pytest.mark.published("KEY", "where in the source")``; KEY must be in
 ``tests/sources.toml`` (author, title, year, what is used).
 """
+import os
 import tomllib
 from pathlib import Path
+
+# The suite tests the compiled kernel (and its twin explicitly in test_kernels.py); no background
+# compiler processes are started from tests. Subprocesses inherit the setting.
+os.environ.setdefault("TUBESIM_KERNEL", "compiled")
 
 import pytest
 

@@ -12,7 +12,7 @@ import functools
 
 import numpy as np
 
-from simulator.model import kernel as K
+from simulator.model import kernel as compiled_kernel
 
 
 @functools.lru_cache(maxsize=32)
@@ -24,7 +24,7 @@ def _cantera_species_thermo(species_path, names, custom_key):
     return {n: in_file[n].thermo for n in names if n in in_file and n not in custom_key}
 
 
-def _enthalpy_cantera(model, F, T, P):
+def _enthalpy_cantera(model, F, T, P, K=compiled_kernel):
     """Stream enthalpy [W] from Cantera species thermo (custom species: exact constant-cp form)."""
     case = model.case
     custom = {c.name: c for c in case.thermo.custom}
@@ -45,7 +45,7 @@ def _enthalpy_cantera(model, F, T, P):
     return H
 
 
-def closure(model, ys):
+def closure(model, ys, K=compiled_kernel):
     """Element and energy closure of a profile (per tube states), relative [-]."""
     n = model.n
     F_in, F_out = ys[0, :n], ys[-1, :n]
@@ -61,13 +61,13 @@ def closure(model, ys):
     worst = max(worst, abs(float(mw @ F_out) - mass_in) / mass_in)
     T_in, T_out = ys[0, n], ys[-1, n]
     P_in, P_out = ys[0, n + 1], ys[-1, n + 1]
-    H_in = _enthalpy_cantera(model, F_in, T_in, P_in)
-    H_out = _enthalpy_cantera(model, F_out, T_out, P_out)
+    H_in = _enthalpy_cantera(model, F_in, T_in, P_in, K)
+    H_out = _enthalpy_cantera(model, F_out, T_out, P_out, K)
     Q = ys[-1, n + 3]
-    H_ref = _enthalpy_cantera(model, F_out, T_in, P_in)
+    H_ref = _enthalpy_cantera(model, F_out, T_in, P_in, K)
     reaction_heat = abs(H_ref - H_in)
-    sensible = abs(_enthalpy_cantera(model, F_out, T_out, P_in) - H_ref)
-    pressure = abs(H_out - _enthalpy_cantera(model, F_out, T_out, P_in))
+    sensible = abs(_enthalpy_cantera(model, F_out, T_out, P_in, K) - H_ref)
+    pressure = abs(H_out - _enthalpy_cantera(model, F_out, T_out, P_in, K))
     # floor: 1e-3 of the flow's thermal scale F_T R T, so a run where nothing happens is not 0/0
     floor = 1e-3 * float(np.sum(np.abs(F_in))) * 8.314462618 * T_in
     scale = max(abs(Q), reaction_heat, sensible, pressure, floor)
@@ -75,7 +75,7 @@ def closure(model, ys):
     return {"elements_relative": worst, "energy_relative": energy}
 
 
-def compressibility_profile(model, ys):
+def compressibility_profile(model, ys, K=compiled_kernel):
     """Z along the tube: the case's EOS, or Peng-Robinson as a check where critical data exist."""
     n = model.n
     crit = model.args[9]

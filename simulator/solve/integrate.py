@@ -28,7 +28,7 @@ import numpy as np
 from scipy.integrate import ODEintWarning, odeint
 from scipy.optimize import brentq
 
-from simulator.model import kernel as K
+from simulator.model import kernels
 from simulator.model.build import build_model
 from simulator.results import Result
 from simulator.solve.checks import closure, compressibility_profile, range_warnings
@@ -52,8 +52,9 @@ def versions():
 class _Tube:
     """Integration of one model, with re-integration from output points for events."""
 
-    def __init__(self, model, rtol, atol, hmax):
+    def __init__(self, model, rtol, atol, hmax, kernel):
         self.model = model
+        self.K = kernel
         self.rtol = rtol
         self.atol = atol
         self.hmax = hmax
@@ -65,7 +66,7 @@ class _Tube:
     def run(self, y0, zs):
         with warnings.catch_warnings():  # the status is checked and reported by simulate()
             warnings.simplefilter("ignore", ODEintWarning)
-            sol, info = odeint(K.rhs_odeint, y0, zs, args=self.model.args, rtol=self.rtol, atol=self.atol,
+            sol, info = odeint(self.K.rhs_odeint, y0, zs, args=self.model.args, rtol=self.rtol, atol=self.atol,
                                full_output=True, hmax=self.hmax, mxstep=100000, printmessg=False)
         self.calls += 1
         if len(info["nfe"]):
@@ -81,7 +82,7 @@ class _Tube:
         return sol[-1]
 
     def derivative(self, z, y):
-        return K.rhs_odeint(y, z, *self.model.args)
+        return self.K.rhs_odeint(y, z, *self.model.args)
 
 
 def _first_crossing(values, upward=True):
@@ -158,7 +159,7 @@ def simulate(case, model=None, length=None):
     opts = case.solver
     zs = np.linspace(0.0, L, opts.output_points)
     atol = model.scale * opts.atol_scale
-    tube = _Tube(model, opts.rtol, atol, opts.max_step)
+    tube = _Tube(model, opts.rtol, atol, opts.max_step, kernels.for_run())
     ys, info = tube.run(model.y0, zs)
     notes = []
     status, termination = "completed", f"end of tube reached at z = {L:.6g} m"
@@ -181,7 +182,7 @@ def simulate(case, model=None, length=None):
         zs, ys = zs[:last_good + 1], ys[:last_good + 1]
 
     # stopping events, in order along the tube
-    dTdz = K.derivative_profile(zs, ys, *model.args)[:, n]
+    dTdz = tube.K.derivative_profile(zs, ys, *model.args)[:, n]
     T_lim = case.design.temperature_limit
     stops = []
     if not math.isnan(T_lim):
@@ -231,14 +232,15 @@ def simulate(case, model=None, length=None):
 
     hot = _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit="temperature_limit" in events)
     Tc = ys[:, n + 2]
-    Z = compressibility_profile(model, ys)
+    Z = compressibility_profile(model, ys, tube.K)
     count = model.count
-    clos = closure(model, ys)
+    clos = closure(model, ys, tube.K)
     notes += range_warnings(model, ys)
     notes += model_warnings(model, ys, zs)
     rise, rise_info = model.adiabatic
     elapsed = time.perf_counter() - started
-    stats = {"method": "LSODA (scipy.integrate.odeint)", "rtol": opts.rtol, "atol_scale": opts.atol_scale,
+    stats = {"method": "LSODA (scipy.integrate.odeint)",
+             "kernel": "compiled (numba)" if tube.K is kernels.compiled else "plain Python (compiled cache cold)", "rtol": opts.rtol, "atol_scale": opts.atol_scale,
              "output_points": int(len(zs)), "rhs_evaluations": tube.nfev, "jacobian_evaluations": tube.njev,
              "steps": tube.nsteps, "integrator_calls": tube.calls, "wall_time_s": round(elapsed, 4)}
     return Result(
