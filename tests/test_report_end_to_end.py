@@ -377,3 +377,21 @@ def test_missing_case_file_is_a_case_error(tmp_path):
     with pytest.raises(CaseError, match=r"cannot read the case file"):
         write_design_report(tmp_path / "missing.toml", tmp_path / "out", pdf=False)
     assert not (tmp_path / "out").exists()
+
+
+def test_sweep_figures_of_the_same_case_enter_the_report(tmp_path):
+    from pathlib import Path
+
+    from simulator.cli import main
+
+    case = Path(__file__).parents[1] / "cases" / "froment1967_oxylene_packed_tube.toml"
+    out = tmp_path / "out"
+    assert main(["sweep", str(case), "--vary", "feed.mole_fractions.OX=0.014:0.019:4",
+                 "--vary", "heat.coolant_temperature=620 K:635 K:3", "--out", str(out)]) == 0
+    assert main(["report", str(case), "--out", str(out), "--no-pdf"]) == 0
+    html = (out / "report.html").read_text()
+    assert "Runaway map from the sweep" in html
+    # a report of another case in the same folder must not pick the map up
+    other = Path(__file__).parents[1] / "cases" / "hydrogenation_cooled_packed_bed.toml"
+    assert main(["report", str(other), "--out", str(out), "--no-pdf"]) == 0
+    assert "Runaway map from the sweep" not in (out / "report.html").read_text()

@@ -156,7 +156,21 @@ def enthalpy_flow(F, T, P, nasa, ip, crit):
     return H
 
 
-@njit(cache=True)
+@njit(cache=True, inline="always")
+def _power(a, e):
+    """a**e with the common kinetic orders done without the general pow (a >= 0)."""
+    if e == 1.0:
+        return a
+    if e == 2.0:
+        return a * a
+    if e == 0.5:
+        return math.sqrt(a)
+    if e == 1.5:
+        return a * math.sqrt(a)
+    return a ** e
+
+
+@njit(cache=True, inline="always")
 def _mixture(T, P, F, ip, fp, crit):
     """(1/F_T for the mole fractions, total concentration P/(Z R T), Z); no allocation for an ideal gas."""
     n = ip[I_N]
@@ -175,7 +189,7 @@ def _mixture(T, P, F, ip, fp, crit):
     return inv, P / (Z * R * T), Z
 
 
-@njit(cache=True)
+@njit(cache=True, inline="always")
 def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads):
     """Rate of reaction j per unit reactor volume, [mol/(m^3*s)].
 
@@ -193,11 +207,7 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads):
     for i in range(n):
         o = ordr[i, j]
         if o != 0.0:
-            a = max(F[i], 0.0) * scale
-            if o == 1.0:
-                fwd *= a
-            else:
-                fwd *= a ** o
+            fwd *= _power(max(F[i], 0.0) * scale, o)
     r = fwd
     if rx[j, X_REV] > 0.5:
         dG_RT = 0.0
@@ -212,11 +222,7 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads):
         for i in range(n):
             e = rexp[i, j]
             if e != 0.0:
-                a = max(F[i], 0.0) * scale
-                if e == 1.0:
-                    rev *= a
-                else:
-                    rev *= a ** e
+                rev *= _power(max(F[i], 0.0) * scale, e)
         r = fwd - rev
     nads = int(rx[j, X_NADS])
     if nads > 0:
@@ -226,7 +232,7 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads):
             for i in range(n):
                 e = ads[j, t, 2 + i]
                 if e != 0.0:
-                    term *= (max(F[i], 0.0) * scale) ** e
+                    term *= _power(max(F[i], 0.0) * scale, e)
             den += term
         r /= den ** rx[j, X_NDEN]
     return r * rx[j, X_BASIS]

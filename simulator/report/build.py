@@ -92,6 +92,48 @@ def default_command_line(case_path, out_dir, pdf=True):
     return " ".join(shlex.quote(w) for w in words)
 
 
+SWEEP_FIGURES = (
+    ("runaway_map.svg", "Runaway map from the sweep",
+     "Hot-spot rise above the coolant over the swept grid (tubesim sweep, same output folder); thick line: "
+     "runaway boundary where the normalized sensitivity along the horizontal axis peaks (Morbidelli-Varma)."),
+    ("hot_spot_sweep.svg", "Hot spot along the sweep",
+     "Hot-spot temperature over the swept parameter (tubesim sweep, same output folder)."),
+    ("exceedance.svg", "Probability of exceeding the temperature limit",
+     "Empirical probability that the hot spot exceeds a temperature, from tubesim uncertainty in the same "
+     "output folder; the design temperature limit and p5/p50/p95 are marked."),
+)
+
+
+def sweep_figures(case, out_dir):
+    """Plots of a sweep or uncertainty run found in ``out_dir`` for this very case, as report plots.
+
+    A figure is included only when the results store next to it was computed from this case
+    file (same fingerprint of the case as written), so a stale map of another case never
+    enters the report.
+    """
+    import base64
+
+    from simulator.sweeps.execute import fingerprint
+    from simulator.sweeps.store import ResultsStore
+
+    store = out_dir / "results.sqlite"
+    if not store.exists():
+        return []
+    try:
+        meta = ResultsStore.read_meta(store)
+    except Exception:  # noqa: BLE001 - an unreadable store: leave the figures out
+        return []
+    if meta.get("case_sha256") != fingerprint(case.raw):
+        return []
+    plots = []
+    for name, title, caption in SWEEP_FIGURES:
+        path = out_dir / name
+        if path.exists():
+            uri = "data:image/svg+xml;base64," + base64.b64encode(path.read_bytes()).decode("ascii")
+            plots.append({"title": title, "uri": uri, "caption": caption})
+    return plots
+
+
 def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timings=None):
     """Solve a case and write its design-basis report.
 
@@ -142,6 +184,9 @@ def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timi
         raise
     except (KeyError, TypeError, ValueError, ArithmeticError) as err:
         raise ReportError(f"report context of {case_path}: {type(err).__name__}: {err}") from err
+    extra = sweep_figures(case, Path(out_dir))
+    if extra and context["screening"]["available"]:
+        context["screening"]["plots"] = list(context["screening"]["plots"]) + extra
     timings["context"] = time.perf_counter() - started
     started = time.perf_counter()
     written = write_report(context, Path(out_dir), pdf=pdf)
