@@ -10,7 +10,11 @@ import sys
 
 EPILOG = """examples:
   tubesim validate cases/decomposition_empty_tube.toml
-  tubesim run cases/decomposition_empty_tube.toml --out out/decomposition
+  tubesim run cases/hydrogenation_cooled_packed_bed.toml --out out/h
+  tubesim assumptions cases/hydrogenation_cooled_packed_bed.toml --out out/h
+  tubesim screen cases/froment1967_oxylene_packed_tube.toml --out out/ox
+  tubesim report cases/hydrogenation_cooled_packed_bed.toml --out out/h
+  tubesim sweep CASE --vary "heat.coolant_temperature=600 K:660 K:31" --out DIR
   python -m simulator run CASE --out DIR      (same as tubesim)
 
 Results are screening-level engineering estimates; see the report's cautions.
@@ -52,6 +56,10 @@ def build_parser():
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
 
+    p = sub.add_parser("screen", help="runaway screening: hot spot, criteria, critical values; "
+                       "write screening.json and sensitivity.csv")
+    p.add_argument("case", help="case file (TOML)")
+    p.add_argument("--out", required=True, help="output folder")
     p = sub.add_parser("report", help="design-basis report: report.html and report.pdf")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
@@ -72,10 +80,6 @@ def build_parser():
     p.add_argument("--out", required=True, help="output folder (a rerun with the same folder resumes)")
     _execution_options(p)
 
-    p = sub.add_parser("screen", help="runaway screening: hot spot, criteria, critical values; "
-                       "write screening.json and sensitivity.csv")
-    p.add_argument("case", help="case file (TOML)")
-    p.add_argument("--out", required=True, help="output folder")
     return parser
 
 

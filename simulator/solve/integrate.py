@@ -169,8 +169,16 @@ def simulate(case, model=None, length=None):
     finite = np.all(np.isfinite(ys), axis=1)
     last_good = len(zs) - 1
     if not ok or not finite.all():
-        reached = float(np.max(info["tcur"])) if len(info["tcur"]) else 0.0
-        bad = np.nonzero(~finite | (zs > reached + 1e-12 * L))[0]
+        # output k (k >= 1) is valid when the solver reached zs[k] (tcur[k-1] >= zs[k]); after a failure
+        # odeint leaves the remaining rows and tcur entries unset, so everything from the first
+        # unreached output on is discarded
+        tcur = np.asarray(info["tcur"], dtype=float)
+        reached = np.concatenate([[True], tcur[:len(zs) - 1] >= zs[1:len(tcur) + 1] - 1e-12 * L]) \
+            if ok or len(tcur) else np.zeros(len(zs), dtype=bool)
+        reached = np.concatenate([reached, np.zeros(len(zs) - len(reached), dtype=bool)])
+        if not ok:
+            reached[1:] &= np.cumprod(reached[1:]).astype(bool)
+        bad = np.nonzero(~finite | ~reached)[0]
         last_good = int(bad[0]) - 1 if len(bad) else len(zs) - 1
         last_good = max(last_good, 0)
         y = ys[last_good]
