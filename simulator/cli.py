@@ -102,6 +102,13 @@ def main(argv=None):
         return 2
     from simulator.errors import CaseError, SimulatorError
 
+    out = getattr(args, "out", None)
+    if out is not None:
+        from pathlib import Path
+
+        if Path(out).exists() and not Path(out).is_dir():
+            print(f"error: --out {out}: is a file; give a folder (it is created if missing)", file=sys.stderr)
+            return 2
     try:
         return COMMANDS[args.command](args)
     except CaseError as err:
@@ -114,6 +121,12 @@ def main(argv=None):
         if args.debug:
             raise
         print(f"error: {err}", file=sys.stderr)
+        return 2 if isinstance(err, ValueError) else 1      # a refused resume is a usage error
+    except OSError as err:
+        if args.debug:
+            raise
+        where = f" {err.filename}" if getattr(err, "filename", None) else ""
+        print(f"error: cannot write or read{where}: {err.strerror or err}", file=sys.stderr)
         return 1
     except KeyboardInterrupt:
         print("interrupted", file=sys.stderr)

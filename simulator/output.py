@@ -15,6 +15,14 @@ def write_run(result, out_dir):
     writer.writerow(header)
     for row in rows:
         writer.writerow([_fmt(v) for v in row])
+    if result.status == "failed":
+        # the partial trajectory helps to see where it went wrong, under a name that says so; a
+        # profile.csv of an earlier run in this folder would contradict summary.json, so it goes
+        stale = out / "profile.csv"
+        if stale.exists():
+            stale.unlink()
+        return [atomic_write_json(out / "summary.json", result.summary()),
+                atomic_write_text(out / "profile_until_failure.csv", buffer.getvalue())]
     paths = [atomic_write_json(out / "summary.json", result.summary()),
              atomic_write_text(out / "profile.csv", buffer.getvalue())]
     return paths
@@ -31,6 +39,10 @@ def print_summary(result, stream=None):
 
     s = result.summary()
     stream = stream or sys.stdout
+    if s["status"] == "failed":
+        print(f"{s['title']}\n  status            FAILED: {s['termination']}\n"
+              "  no results: the integration did not reach the end of the tube", file=stream)
+        return
     o, h, d = s["outlet"], s["hot_spot"], s["design"]
     lines = [
         f"{s['title']}",

@@ -92,6 +92,23 @@ class Result:
             "heat_duty_W": _num(self.Q[-1]),
             "pressure_drop_Pa": _num(self.P[0] - self.P[-1]),
         }
+        if self.status == "failed":
+            # a failed integration is reported as such: where and why, and no result-looking numbers
+            outlet = {k: None for k in outlet}
+            outlet["position_m"] = _num(self.z[-1])
+            return {
+                "title": self.case.title, "status": self.status, "termination": self.termination,
+                "key_species": self.key_species, "outlet": outlet,
+                "hot_spot": {"temperature_K": None, "position_m": None, "rise_above_feed_K": None,
+                             "rise_above_coolant_K": None, "located_by": None},
+                "design": {"target_conversion": self.design.get("target_conversion"), "reached": False,
+                           "length_m": None, "volume_m3": None, "catalyst_mass_kg": None},
+                "adiabatic_temperature_rise_K": _num(self.adiabatic_temperature_rise),
+                "adiabatic": self._adiabatic_block(),
+                "closure": {"elements_relative": None, "energy_relative": None},
+                "max_compressibility_deviation": None, "events": self.events, "warnings": list(self.warnings),
+                "solver": self.solver_stats, "references": list(self.references), "versions": self.versions,
+            }
         return {
             "title": self.case.title,
             "status": self.status,

@@ -28,11 +28,16 @@ def _with(case, length=None, count=None):
 
 
 def _evaluate(case, kind):
-    """Run one candidate and judge it against the requirements."""
+    """Run one candidate and judge it against the requirements.
+
+    For a length found by (a) the tube ends at the target, so pressure drop and hot spot count up
+    to there; for a count found by (b) the tube keeps the case's length, so they count over all of it.
+    """
     result = simulate(case)
     d = result.design
     hot = result.hot_spot
-    if d["reached"]:
+    whole_tube = kind == "count for the given length"     # the tube keeps its length: judge all of it
+    if d["reached"] and not whole_tube:
         z = d["length_m"]
         mask = result.z <= z + 1e-12
         T_max = float(result.T[mask].max())

@@ -200,6 +200,10 @@ def load_case_dict(raw, source_path="", case_dir=None):
     for i, entry in enumerate(raw.get("uncertainty", []) if isinstance(raw.get("uncertainty", []), list) else []):
         ck.keys(entry, KEYS["uncertainty.*"], f"uncertainty.{i}")
 
+    if not math.isnan(design.temperature_limit) and not math.isnan(feed.temperature) \
+            and design.temperature_limit <= feed.temperature:
+        ck.fail("design.temperature_limit", f" = {raw['design'].get('temperature_limit')!r}: must be above the feed "
+                f"temperature ({feed.temperature:.6g} K).")
     if any(r.per == "catalyst-mass" for r in reactions) and bed is None:
         ck.fail("reactions", ': a rate per "catalyst-mass" needs a [bed] table with bulk_density.')
 
@@ -312,10 +316,11 @@ def _reactions(ck, raw):
             try:
                 A = parse_quantity(r["pre_exponential"], expected, "")
             except UnitError as err:
-                si = _si_text(expected)
+                example = _rate_constant_example(n, driving, per)
                 ck.fail(f"{path}.pre_exponential", f"{err}".split(": wrong dimension")[0] +
                         (f": units do not match orders (sum {n:g}), driving force {driving!r} and rate per "
-                         f"{per!r}; expected units of {si}, e.g. \"... {si}\"."
+                         f"{per!r}; give them as rate / activity^{n:g}, e.g. \"1.0e5 {example}\" "
+                         f"(k = A T^b exp(-E/RT) with T in K: b adds no unit)."
                          if "wrong dimension" in str(err) else ""))
             if not (A >= 0):
                 if not math.isnan(A):
@@ -343,6 +348,16 @@ def _reactions(ck, raw):
     return out
 
 
+def _rate_constant_example(n, driving, per):
+    """A pasteable unit for a pre-exponential factor in the user's own basis, e.g. mol/(kg*s*bar^1.5)."""
+    rate = "mol/(kg*s" if per == "catalyst-mass" else "mol/(m^3*s"
+    if driving == "partial-pressure":
+        return f"{rate})" if n == 0 else f"{rate}*bar^{n:g})"
+    if n == 0:
+        return f"{rate})"
+    return f"{rate}) / (mol/m^3)^{n:g}" if n != 1 else "1/s" if per == "volume" else "m^3/(kg*s)"
+
+
 def _si_text(expression):
     from simulator.units import registry
 
@@ -367,7 +382,10 @@ def _adsorption(ck, r, path, activity):
         try:
             K0 = parse_quantity(a.get("pre_exponential"), f"1/({activity})**({total!r})", "")
         except UnitError as err:
-            ck.fail(f"{p}.pre_exponential", f"{err}; expected units of {_si_text(f'1/({activity})**({total!r})')}.")
+            act = "bar" if activity == "Pa" else "(mol/m^3)"
+            text = str(err).split(": wrong dimension")[0]
+            ck.fail(f"{p}.pre_exponential", f"{text}: an adsorption constant has units of 1 / activity^{total:g}, "
+                    f"e.g. \"0.1 1/{act}^{total:g}\".")
         dH = ck.quantity(a, "heat_of_adsorption", "molar_energy", p)
         out.append(Adsorption(exponents=tuple((k, float(v)) for k, v in exps.items()),
                               pre_exponential=K0, heat_of_adsorption=dH))
@@ -545,9 +563,12 @@ def _check_species(ck, species, thermo, reactions, feed, design):
                 if s not in species:
                     ck.fail(f"reactions.{j}.adsorption.{m}.species.{s}",
                             f": {s!r} is neither in the feed nor in any reaction.")
-        for s, _ in r.orders:
+        for s, o in r.orders:
             if s not in species:
                 ck.fail(f"reactions.{j}.orders.{s}", f": {s!r} is neither in the feed nor in any reaction.")
+            elif o < 0 and dict(feed.mole_fractions).get(s, 0.0) <= 0.0:
+                ck.fail(f"reactions.{j}.orders.{s}", f" = {o:g}: a negative order needs {s!r} in the feed "
+                        "(its activity is zero at the inlet, which makes the rate infinite).")
         if ok:
             _check_balance(ck, j, r, thermo, in_file)
             if r.reversible:

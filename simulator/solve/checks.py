@@ -2,11 +2,16 @@
 
 * Element closure: every element (and, for custom species without elements,
   the total mass) entering must leave: max |out - in| / in.
+  The stoichiometry is checked at load, so this detects integration and round-off
+  errors in the flows (and negative flows clipped away), not wrong stoichiometry.
 * Energy closure: H_out - H_in - Q = 0, with the stream enthalpies evaluated
   independently of the kernel by Cantera's own species thermo (ideal-gas part)
   and Q the integrated wall heat; relative to the largest of |Q|, the reaction
   heat sum_i (F_i,out - F_i,in) h_i(T_in), the sensible heat change at the inlet
-  pressure, the pressure (departure) change and a floor of 1e-3 F_T R T_in.
+  pressure, the pressure (departure) change and a floor of 1e-3 F_T R T_in. It detects
+  integration error in T and Q and any mismatch between the kernel's thermo and
+  Cantera's; in an isothermal run Q is the duty the kernel integrated, so the check
+  reduces to the flows and the thermo consistency.
 """
 import functools
 
@@ -73,6 +78,22 @@ def closure(model, ys, K=compiled_kernel):
     scale = max(abs(Q), reaction_heat, sensible, pressure, floor)
     energy = abs(H_out - H_in - Q) / scale
     return {"elements_relative": worst, "energy_relative": energy}
+
+
+#: Closure above which a run carries a warning, [-]
+CLOSURE_LIMITS = {"elements_relative": 1e-9, "energy_relative": 1e-6}
+
+
+def closure_warnings(closure_values):
+    """Warnings for closures above :data:`CLOSURE_LIMITS` (loose tolerances or a model defect)."""
+    out = []
+    for key, limit in CLOSURE_LIMITS.items():
+        value = closure_values.get(key)
+        if value is not None and value > limit:
+            what = "element (mass)" if key.startswith("elements") else "energy"
+            out.append(f"{what} balance closes only to {value:.2g} (limit {limit:g}): tighten [solver] rtol / "
+                       "atol_scale; the results carry errors of that size")
+    return out
 
 
 def compressibility_profile(model, ys, K=compiled_kernel):

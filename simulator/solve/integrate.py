@@ -31,7 +31,7 @@ from scipy.optimize import brentq
 from simulator.model import kernels
 from simulator.model.build import build_model
 from simulator.results import Result
-from simulator.solve.checks import closure, compressibility_profile, range_warnings
+from simulator.solve.checks import closure, closure_warnings, compressibility_profile, range_warnings
 
 PRESSURE_FLOOR = 0.01   # fraction of the feed pressure below which the run stops
 
@@ -67,7 +67,7 @@ class _Tube:
         with warnings.catch_warnings():  # the status is checked and reported by simulate()
             warnings.simplefilter("ignore", ODEintWarning)
             sol, info = odeint(self.K.rhs_odeint, y0, zs, args=self.model.args, rtol=self.rtol, atol=self.atol,
-                               full_output=True, hmax=self.hmax, mxstep=100000, printmessg=False)
+                               full_output=True, hmax=self.hmax, mxstep=MAX_STEPS, printmessg=False)
         self.calls += 1
         if len(info["nfe"]):
             self.nfev += int(info["nfe"][-1])
@@ -83,6 +83,34 @@ class _Tube:
 
     def derivative(self, z, y):
         return self.K.rhs_odeint(y, z, *self.model.args)
+
+
+MAX_STEPS = 100000   # ODEPACK step budget of one integration
+
+
+def _explain_failure(message, case, length):
+    """A solver failure in plain words with the likely cause and what to change (one sentence each)."""
+    text = " ".join(message.split()).rstrip(".")
+    max_step = case.solver.max_step
+    if not message:
+        return ("the state became non-finite (overflow or a negative concentration raised to a negative or "
+                "fractional order); check the kinetics, its units and the feed")
+    if "Excess work done" in text:
+        if max_step > 0 and length / max_step > 0.5 * MAX_STEPS:
+            return (f"step budget of {MAX_STEPS} steps exhausted because solver.max_step = {max_step:g} m is far "
+                    f"too small for a {length:g} m tube; raise or remove it")
+        return (f"step budget of {MAX_STEPS} steps exhausted: the solution changes extremely fast here (a "
+                "runaway, or rate constants far too large); check the kinetics and their units, or set "
+                "design.temperature_limit to stop a runaway")
+    if "Excess accuracy requested" in text:
+        return "the tolerances are tighter than double precision allows; loosen [solver] rtol / atol_scale"
+    if "Illegal input" in text:
+        return ("the solver was given an invalid state (for example a negative flow raised to a fractional or "
+                "negative order); check the orders and the feed")
+    if "error test" in text.lower() or "convergence" in text.lower():
+        return ("the solution changes too sharply to follow (a runaway or a discontinuity in the kinetics); "
+                "check the kinetics, or set design.temperature_limit to stop a runaway")
+    return f"{text} (ODEPACK LSODA)"
 
 
 def _first_crossing(values, upward=True):
@@ -108,6 +136,58 @@ def _refine(tube, zs, ys, k, g):
     except ValueError:  # no sign change on the refined trajectory (grazing): keep the grid point
         root = zs[k + 1]
     return root, tube.state_at(z0, y0, root)
+
+
+STEP_ALARM = 40     # solver steps between two output points above which the interval is resolved
+MAX_RESOLVED = 25   # intervals resolved at most per run
+
+
+def _hermite_hidden_maximum(zs, T, dTdz):
+    """Intervals whose cubic Hermite interpolant has an interior maximum although dT/dz has the same
+    sign at both ends (a peak and a dip inside one output interval)."""
+    h = np.diff(zs)
+    T0, T1, d0, d1 = T[:-1], T[1:], dTdz[:-1], dTdz[1:]
+    a = 6 * (T0 - T1) + 3 * h * (d0 + d1)
+    b = -6 * (T0 - T1) - 2 * h * (2 * d0 + d1)
+    c = h * d0
+    disc = b * b - 4 * a * c
+    same_sign = (d0 > 0) == (d1 > 0)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        r1 = (-b - np.sqrt(np.maximum(disc, 0))) / (2 * a)
+        r2 = (-b + np.sqrt(np.maximum(disc, 0))) / (2 * a)
+    inside = (r1 > 0) & (r1 < 1) & (r2 > 0) & (r2 < 1)
+    return np.nonzero(same_sign & (disc > 0) & (a != 0) & inside)[0]
+
+
+def _resolve_fast_intervals(tube, zs, ys, dTdz, info, n):
+    """Insert the solver's internal steps in intervals with fast dynamics; returns (zs, ys, refined).
+
+    An interval is resolved when ODEPACK needed more than STEP_ALARM steps across it (its step
+    count is in ``info["nst"]``), or when the Hermite interpolant of T hides a maximum there. The
+    interval is integrated again by scipy's LSODA (same tolerances) and its internal step points,
+    which follow the dynamics, are added to the profile, so events and the hot spot are found
+    on them as on any output point.
+    """
+    from scipy.integrate import solve_ivp
+
+    nst = np.asarray(info["nst"], dtype=float)[:len(zs) - 1]
+    steps = np.diff(np.concatenate([[0.0], nst]))
+    flagged = set(np.nonzero(steps > STEP_ALARM)[0].tolist()) | set(
+        _hermite_hidden_maximum(zs, ys[:, n], dTdz).tolist())
+    if not flagged:
+        return zs, ys, False
+    K, args = tube.K, tube.model.args
+    new_z, new_y = [zs], [ys]
+    for k in sorted(flagged)[:MAX_RESOLVED]:
+        sol = solve_ivp(lambda z, y: K.rhs_odeint(y, z, *args), (zs[k], zs[k + 1]), ys[k], method="LSODA",
+                        rtol=tube.rtol, atol=tube.atol)
+        inner = (sol.t > zs[k]) & (sol.t < zs[k + 1])
+        if sol.status == 0 and inner.any():
+            new_z.append(sol.t[inner])
+            new_y.append(sol.y[:, inner].T)
+    z_all = np.concatenate(new_z)
+    order = np.argsort(z_all, kind="stable")
+    return z_all[order], np.ascontiguousarray(np.vstack(new_y)[order]), len(new_z) > 1
 
 
 def _limit_crossing(tube, zs, ys, dTdz, n, T_lim):
@@ -183,14 +263,17 @@ def simulate(case, model=None, length=None):
         last_good = max(last_good, 0)
         y = ys[last_good]
         status = "failed"
-        why = info["message"].strip() if not ok else "the state became non-finite"
+        why = _explain_failure(info["message"] if not ok else "", case, L)
         termination = (f"solver failed at z = {zs[last_good]:.6g} m of {L:.6g} m (T = {y[n]:.6g} K, "
-                       f"P = {y[n + 1]:.6g} Pa): {why}. Try tighter [solver] rtol, a smaller max_step, "
-                       "or check the kinetics and units.")
+                       f"P = {y[n + 1]:.6g} Pa): {why}")
         zs, ys = zs[:last_good + 1], ys[:last_good + 1]
 
-    # stopping events, in order along the tube
+    # fast dynamics between output points (a hot spot narrower than the output spacing): add the
+    # solver's own steps there before looking for events
     dTdz = tube.K.derivative_profile(zs, ys, *model.args)[:, n]
+    zs, ys, refined = _resolve_fast_intervals(tube, zs, ys, dTdz, info, n)
+    if refined:
+        dTdz = tube.K.derivative_profile(zs, ys, *model.args)[:, n]
     T_lim = case.design.temperature_limit
     stops = []
     if not math.isnan(T_lim):
@@ -243,6 +326,7 @@ def simulate(case, model=None, length=None):
     Z = compressibility_profile(model, ys, tube.K)
     count = model.count
     clos = closure(model, ys, tube.K)
+    notes += closure_warnings(clos)
     notes += range_warnings(model, ys)
     notes += model_warnings(model, ys, zs)
     rise, rise_info = model.adiabatic
@@ -284,7 +368,7 @@ def _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit):
                 "rise_above_feed_K": float(ys[-1, n] - T0),
                 "rise_above_coolant_K": _rise_above_coolant(case, ys[-1]),
                 "located_by": "temperature limit: the run stopped there; the true maximum is higher"}
-    candidates = [(float(ys[0, n]), float(zs[0]), ys[0], "inlet (dT/dz <= 0 there)"),
+    candidates = [(float(ys[0, n]), float(zs[0]), ys[0], "inlet"),
                   (float(ys[-1, n]), float(zs[-1]), ys[-1], "outlet (temperature still rising)"
                    if dTdz[-1] > 0 else "outlet")]
     idx = np.nonzero((dTdz[:-1] > 0) & (dTdz[1:] <= 0))[0]
@@ -321,6 +405,8 @@ def _locate_maximum(tube, zs, ys, k, dTdz, n, tolerance=1e-6):
 
     if slope(lo) * slope(hi) > 0:
         lo, hi = z0, z1
+        if slope(lo) * slope(hi) > 0:   # the re-integrated trajectory shows no sign change (loose tolerances)
+            return z_m, y_m
     root = brentq(slope, lo, hi, xtol=max(1e-12, 1e-10 * (z1 - z0)), rtol=1e-12, maxiter=100)
     return root, tube.state_at(z0, ys[k], root)
 

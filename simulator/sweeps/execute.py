@@ -467,10 +467,18 @@ def fingerprint(obj):
     return hashlib.sha256(text.encode("utf-8")).hexdigest()
 
 
+def _tool_version():
+    """tubesim's version: a run is resumed only by the version that started it."""
+    from simulator import __version__
+
+    return __version__
+
+
 def grid_meta(base_raw, specs, cases):
     """The ``meta`` of a grid sweep's store (the same for every engine, so a resume may switch engines)."""
     return {
         "command": "sweep",
+        "tubesim_version": _tool_version(),
         "vary": [f"{s.path}={s.values_text[0]}:{s.values_text[-1]}:{len(s.values_text)}" for s in specs],
         "n_cases": len(cases),
         "case_sha256": fingerprint(base_raw),
@@ -578,6 +586,7 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     cases = [(i, dict(zip(paths, (float(v) for v in samples[i])))) for i in range(samples.shape[0])]
     meta = {
         "command": "uncertainty",
+        "tubesim_version": _tool_version(),
         "seed": int(seed),
         "method": method,
         "n_samples": int(n_samples),
