@@ -469,9 +469,9 @@ def fingerprint(obj):
 
 def _tool_version():
     """tubesim's version: a run is resumed only by the version that started it."""
-    from simulator import __version__
+    from simulator.solve.integrate import versions
 
-    return __version__
+    return versions()["tubesim"]
 
 
 def grid_meta(base_raw, specs, cases):
