@@ -132,6 +132,76 @@ def pr_departure(T, P, x, crit):
 
 
 @njit(cache=True)
+def pr_ln_fugacity_coefficients(T, P, x, crit, out):
+    r"""Peng-Robinson ln(phi_i) of each species in a mixture (vapour root), written to ``out``.
+
+    Parameters
+    ----------
+    T : float
+        Temperature, [K]
+    P : float
+        Pressure, [Pa]
+    x : ndarray
+        Mole fractions, [-]
+    crit : ndarray
+        (n, 3) rows of critical temperature [K], critical pressure [Pa], acentric factor [-]
+    out : ndarray
+        Receives ln(phi_i), [-]
+
+    Returns
+    -------
+    Z : float
+        Compressibility factor, [-]
+
+    Notes
+    -----
+    .. math::
+        \ln\varphi_i = \frac{b_i}{b}(Z-1) - \ln(Z-B) - \frac{A}{2\sqrt2 B}
+        \left(\frac{2\sum_j x_j a_{ij}}{a} - \frac{b_i}{b}\right)
+        \ln\frac{Z+(1+\sqrt2)B}{Z+(1-\sqrt2)B}
+
+    with a_ij = sqrt(a_i a_j) (no binary interaction parameters).
+
+    References
+    ----------
+    .. [1] D.-Y. Peng, D.B. Robinson, "A new two-constant equation of state,"
+       Ind. Eng. Chem. Fundam., vol. 15, pp. 59-64, 1976.
+    """
+    n = x.shape[0]
+    ai = np.empty(n)
+    bi = np.empty(n)
+    for i in range(n):
+        Tc = crit[i, 0]
+        Pc = crit[i, 1]
+        w = crit[i, 2]
+        if w <= 0.491:
+            kap = 0.37464 + 1.54226 * w - 0.26992 * w * w
+        else:
+            kap = 0.379642 + 1.48503 * w - 0.164423 * w * w + 0.016666 * w * w * w
+        sq = 1.0 + kap * (1.0 - math.sqrt(T / Tc))
+        ai[i] = 0.45724 * R * R * Tc * Tc / Pc * sq * sq
+        bi[i] = 0.07780 * R * Tc / Pc
+    am = 0.0
+    bm = 0.0
+    for i in range(n):
+        bm += x[i] * bi[i]
+        for k in range(n):
+            am += x[i] * x[k] * math.sqrt(ai[i] * ai[k])
+    Z = pr_departure(T, P, x, crit)[0]
+    A = am * P / (R * T) ** 2
+    B = bm * P / (R * T)
+    s2 = math.sqrt(2.0)
+    log_term = math.log((Z + (1.0 + s2) * B) / (Z + (1.0 - s2) * B))
+    for i in range(n):
+        sum_a = 0.0
+        for k in range(n):
+            sum_a += x[k] * math.sqrt(ai[i] * ai[k])
+        out[i] = (bi[i] / bm * (Z - 1.0) - math.log(Z - B)
+                  - A / (2.0 * s2 * B) * (2.0 * sum_a / am - bi[i] / bm) * log_term)
+    return Z
+
+
+@njit(cache=True)
 def compressibility(T, P, x, ip, crit):
     """Z of the mixture (1 for an ideal gas), [-]."""
     if ip[I_EOS] == EOS_PR:
@@ -170,6 +240,25 @@ def _power(a, e):
     return a ** e
 
 
+@njit(cache=True)
+def _ln_fugacity_correction(j, T, P, F, inv, act_is_p, ip, nu, crit):
+    """sum_i nu_ij ln(phi_i) (+ dn ln Z for concentration activities) at the current state, [-]."""
+    n = ip[I_N]
+    x = np.empty(n)
+    for i in range(n):
+        x[i] = max(F[i], 0.0) * inv
+    lnphi = np.empty(n)
+    Z = pr_ln_fugacity_coefficients(T, P, x, crit, lnphi)
+    total = 0.0
+    dn = 0.0
+    for i in range(n):
+        total += nu[i, j] * lnphi[i]
+        dn += nu[i, j]
+    if not act_is_p:
+        total += dn * math.log(Z)
+    return total
+
+
 @njit(cache=True, inline="always")
 def _mixture(T, P, F, ip, fp, crit):
     """(1/F_T for the mole fractions, total concentration P/(Z R T), Z); no allocation for an ideal gas."""
@@ -190,7 +279,7 @@ def _mixture(T, P, F, ip, fp, crit):
 
 
 @njit(cache=True, inline="always")
-def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads):
+def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit):
     """Rate of reaction j per unit reactor volume, [mol/(m^3*s)].
 
     Activities are y_i P (partial pressure, [Pa]) or y_i P/(Z R T) (concentration,
@@ -218,6 +307,10 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads):
         # K in the activity basis: K0 * (P0/(R T))^dn for concentrations, K0 * P0^dn for pressures
         ref = P_STANDARD if act_is_p else P_STANDARD / (R * T)
         lnK = -dG_RT + rx[j, X_DN] * math.log(ref)
+        if ip[I_EOS] == EOS_PR:
+            # real gas: equilibrium in fugacities, f_i = phi_i y_i P; with concentration activities
+            # y_i P/(Z R T) the quotient also carries Z^dn. Q_f/K0 = Q_a/K_a * prod(phi^nu) * (Z^dn)
+            lnK -= _ln_fugacity_correction(j, T, P, F, inv, act_is_p, ip, nu, crit)
         rev = k * math.exp(-lnK)
         for i in range(n):
             e = rexp[i, j]
@@ -248,7 +341,7 @@ def reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, out):
     """
     inv, ctot, Z = _mixture(T, P, F, ip, fp, crit)
     for j in range(ip[I_M]):
-        out[j] = reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads)
+        out[j] = reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit)
     return Z
 
 
@@ -272,7 +365,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
     for i in range(n):
         dydz[i] = 0.0
     for j in range(m):
-        r = area * reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads)
+        r = area * reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit)
         for i in range(n):
             v = nu[i, j]
             if v != 0.0:
@@ -415,3 +508,24 @@ def compressibility_profile(T, P, F, crit):
             x[i] = max(F[k, i], 0.0) / Ft
         out[k] = pr_departure(T[k], P[k], x, crit)[0]
     return out
+
+
+def _dispatchers(namespace):
+    from numba.core.registry import CPUDispatcher
+
+    return [v for v in namespace.values() if isinstance(v, CPUDispatcher)]
+
+
+def _refresh_cache():
+    import os
+
+    from simulator.model import pressure_drop
+    from simulator.model.jit_cache import refresh_if_sources_changed
+    from simulator.thermo import nasa7
+
+    compiled = sorted(_dispatchers(globals()), key=lambda d: d.py_func.__module__ != __name__)  # own first
+    if compiled and not os.environ.get("NUMBA_DISABLE_JIT"):
+        refresh_if_sources_changed("kernel", compiled, [__file__, nasa7.__file__, pressure_drop.__file__])
+
+
+_refresh_cache()

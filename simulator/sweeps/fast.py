@@ -885,3 +885,20 @@ def batch_solve(model, params, paths, *, rtol=DEFAULT_RTOL, atol_scale=None, max
     t3 = time.perf_counter()
     out["timing"] = {"pack": t1 - t0, "compiled": t2 - t1, "fallback": t3 - t2}
     return out
+
+
+def _refresh_cache():
+    """Flush this module's compiled cache when it or the kernel it calls changed (see jit_cache)."""
+    from numba.core.registry import CPUDispatcher
+
+    from simulator.model import pressure_drop
+    from simulator.model.jit_cache import refresh_if_sources_changed
+    from simulator.thermo import nasa7
+
+    compiled = [v for v in globals().values() if isinstance(v, CPUDispatcher)]
+    if compiled:
+        refresh_if_sources_changed("sweep-integrator", compiled,
+                                   [__file__, K.__file__, nasa7.__file__, pressure_drop.__file__])
+
+
+_refresh_cache()
