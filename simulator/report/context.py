@@ -882,14 +882,24 @@ def _screening_block(case, result, screening, reason):
                "columns": ["Parameter", "Design", "Critical", "Margin", "Relative margin", "max |s|", "Verdict"],
                "rows": margin_rows}
     sens_rows = []
+    excess = screening.get("sensitivity_excess", {})
     for name, s in screening.get("sensitivity", {}).items():
         label = _PARAMETER_LABELS.get(name, name).format(key=key)
-        big = _finite(s) and abs(s) > 1.0
-        sens_rows.append([label, fmt(s, 3),
-                          {"level": "attention" if big else "ok",
-                           "text": "|s| > 1: sensitive" if big else ("|s| ≤ 1" if _finite(s) else "not computed")}])
-    sensitivity = {"caption": "Normalized sensitivity of the hot spot at the design point, s = (φ/T*)·dT*/dφ",
-                   "columns": ["Parameter φ", "s", "Reading"], "rows": sens_rows}
+        x = excess.get(name)
+        temperature = name in ("inlet_temperature", "coolant_temperature")
+        big = _finite(x) and (x > 1.0 if temperature else abs(x) > 1.0)
+        if not _finite(s):
+            reading = "not computed"
+        elif temperature:
+            reading = "s − φ/T* > 1: amplified, sensitive" if big else "s − φ/T* ≤ 1"
+        else:
+            reading = "|s| > 1: sensitive" if big else "|s| ≤ 1"
+        sens_rows.append([label, fmt(s, 3), fmt(x, 3) if temperature else _DASH,
+                          {"level": "attention" if big else "ok", "text": reading}])
+    sensitivity = {"caption": "Normalized sensitivity of the hot spot at the design point, s = (φ/T*)·dT*/dφ; for "
+                              "the inlet and coolant temperatures a hot spot that just follows them (as without "
+                              "reaction) has s = φ/T*, so only the excess counts",
+                   "columns": ["Parameter φ", "s", "s − φ/T*", "Reading"], "rows": sens_rows}
     flag = _runaway_flag(case, result, screening, None)
     return {"available": True, "reason_if_not": "", "paragraphs": paragraphs, "flags": [flag],
             "tables": [groups, criteria, notes, margins, sensitivity],

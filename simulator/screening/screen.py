@@ -26,7 +26,11 @@ Risk rule (documented choice; thresholds are common practice, no source):
   Morbidelli-Varma boundary (feed fraction, coolant or inlet temperature), or
   the hot spot exceeds the Van Welsenaere-Froment maxima-curve temperature T_m
   by more than R Tc^2/E;
-* ``sensitive`` if any |s| > 1, a relative margin in feed fraction below 10 %,
+* ``sensitive`` if s - phi/T* > 1 for the inlet or coolant temperature (phi/T* is
+  the sensitivity of a hot spot that follows that temperature one to one, as it does
+  without reaction, so only the reaction's amplification counts), |s| > 1 for the feed
+  fraction, U or the mass flow, a
+  relative margin in feed fraction below 10 %,
   or a coolant / inlet temperature margin below R Tc^2/E;
 * ``adequate margin`` otherwise.
 """
@@ -99,7 +103,11 @@ class _Variants:
         raise KeyError(name)
 
     def variant(self, name, value):
-        c = self.case
+        return self.variant_of(self.case, name, value)
+
+    @staticmethod
+    def variant_of(c, name, value):
+        """The case ``c`` with one operating parameter set to ``value`` (SI)."""
         if name == "feed_mole_fraction":
             key = c.design.key_species
             x = dict(c.feed.mole_fractions)
@@ -305,8 +313,9 @@ def screen(case, n_coarse=21):
         s = C.morbidelli_varma_1988_normalized_sensitivity(v.hot_spot(name), base, rel_step=REL_STEP) \
             if base > 0 else math.nan
         sensitivity[name] = None if not math.isfinite(s) else s
+    excess = _excess_sensitivity(v, sensitivity, T_star)
 
-    risk, rule = _risk(critical, sensitivity, vwf, Tc, E, T_star)
+    risk, rule = _risk(critical, excess, vwf, Tc, E, T_star)
     return {
         "title": case.title,
         "key_species": case.design.key_species,
@@ -317,6 +326,8 @@ def screen(case, n_coarse=21):
         "criteria": crit,
         "critical": critical,
         "sensitivity": sensitivity,
+        "sensitivity_without_reaction": {k: excess[k + "_inert"] for k in TEMPERATURE_PARAMETERS},
+        "sensitivity_excess": {k: excess[k] for k in SENSITIVITY_PARAMETERS},
         "risk": risk,
         "risk_rule": rule,
         "cautions": list(CAUTIONS),
@@ -424,7 +435,29 @@ def _criteria_boundaries(v, crit, mv_entry, Tc, E):
         target["feed_search_range"] = [lo, hi]
 
 
+TEMPERATURE_PARAMETERS = ("inlet_temperature", "coolant_temperature")
+
+
+def _excess_sensitivity(v, sensitivity, T_star):
+    """s minus the sensitivity the tube would have if its hot spot followed the parameter one to one.
+
+    Without reaction the hot spot is the inlet or the coolant temperature, so dT*/dphi = 1 and
+    s_0 = phi/T* for those two parameters whatever the kinetics; only the excess over that
+    baseline measures the reaction's amplification. For the other parameters s_0 = 0. Returns
+    the excess per parameter and the baselines as ``<name>_inert``.
+    """
+    out = {}
+    for name in SENSITIVITY_PARAMETERS:
+        s = sensitivity[name]
+        base_s = v.base[name] / T_star if name in TEMPERATURE_PARAMETERS else 0.0
+        if name in TEMPERATURE_PARAMETERS:
+            out[name + "_inert"] = base_s
+        out[name] = None if s is None else s - base_s
+    return out
+
+
 def _risk(critical, sensitivity, vwf, Tc, E, T_star):
+    """Risk class and the rule that set it; ``sensitivity`` is the excess over the no-reaction tube."""
     scale = R * Tc ** 2 / E
     reasons = []
     for key, entry in critical.items():
@@ -436,7 +469,11 @@ def _risk(critical, sensitivity, vwf, Tc, E, T_star):
         return "runaway", "; ".join(reasons)
     sens = []
     for name, s in sensitivity.items():
-        if s is not None and abs(s) > 1.0:
+        if s is None:
+            continue
+        if name in TEMPERATURE_PARAMETERS and s > 1.0:     # amplification beyond following 1:1
+            sens.append(f"s - T/T* = {s:.3g} > 1 for {name}")
+        elif name not in TEMPERATURE_PARAMETERS and abs(s) > 1.0:
             sens.append(f"|s| = {abs(s):.3g} > 1 for {name}")
     fm = critical["feed_mole_fraction"]
     if fm["found"] and fm["margin_relative"] is not None and abs(fm["margin_relative"]) < 0.10:
@@ -447,7 +484,8 @@ def _risk(critical, sensitivity, vwf, Tc, E, T_star):
             sens.append(f"{key} margin {e['margin']:.1f} K < R Tc^2/E = {scale:.1f} K")
     if sens:
         return "sensitive", "; ".join(sens)
-    return "adequate margin", (f"no |s| > 1, feed-fraction margin >= 10 % and temperature margins >= R Tc^2/E "
+    return "adequate margin", (f"no s - T/T* > 1 (inlet, coolant temperature) or |s| > 1 (feed fraction, U, "
+                               f"mass flow), feed-fraction margin >= 10 % and temperature margins >= R Tc^2/E "
                                f"= {scale:.1f} K (thresholds: common practice, no source)")
 
 
