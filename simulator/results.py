@@ -138,8 +138,11 @@ class Result:
         reaction = info.get("reaction")
         limited = info.get("limited_by")
         return {
-            "basis": "complete conversion of the key species by one declared reaction, enthalpy balance with "
-                     "temperature-dependent heat capacities",
+            "basis": "worst case over the declared reactions: the largest consumption of the key species (complete "
+                     "unless a co-reactant runs out), then the largest heat release; reversible reactions taken to "
+                     "completion (an upper bound); enthalpy balance with temperature-dependent heat capacities",
+            "extents_mol_per_s": {self.case.reactions[j].equation: _num(v * self.case.tube.count)
+                                  for j, v in enumerate(info.get("extents", []))},
             "reaction": None if reaction is None else self.case.reactions[reaction].equation,
             "limited_by": None if limited is None else self.species[limited],
             "outlet_temperature_K": _num(info.get("outlet_temperature")),

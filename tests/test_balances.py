@@ -160,3 +160,27 @@ def test_feed_given_as_mass_or_volumetric_flow(write_case, flow):
         assert total == pytest.approx(0.3 / M, rel=1e-4)
     else:
         assert total == pytest.approx(0.5 * 5e5 / (R * 600.0), rel=1e-12)
+
+
+def test_adiabatic_rise_takes_the_worst_case_over_several_reactions(write_case):
+    # C2H4 + H2 => C2H6 then C2H6 + H2 => 2 CH4 with H2 in excess: the worst case converts all
+    # ethylene and then hydrogenolyses all the ethane (extents 0.1 and 0.1 per mol of feed). The
+    # outlet temperature is checked against Cantera's own enthalpy balance at fixed composition
+    # (gas.HPX), an independent evaluation of the same NASA data.
+    import cantera as ct
+
+    text = BASE.format(reaction='equation = "C2H4 + H2 => C2H6"\npre_exponential = "1 m^3/(mol*s)"\n'
+                                'activation_energy = "60 kJ/mol"\n[[reactions]]\nequation = "C2H6 + H2 => 2 CH4"\n'
+                                'pre_exponential = "1 m^3/(mol*s)"\nactivation_energy = "80 kJ/mol"',
+                       T=500.0, P=5.0, flow='molar_flow = "10 mol/s"', x="{ C2H4 = 0.1, H2 = 0.5, N2 = 0.4 }",
+                       L=1.0, heat='mode = "adiabatic"', pdrop='model = "none"', key="C2H4", bed="",
+                       tube_extra="", thermo_extra="")
+    result = simulate(load_case(write_case(text)))
+    extents = result.summary()["adiabatic"]["extents_mol_per_s"]
+    assert extents["C2H4 + H2 => C2H6"] == pytest.approx(1.0, rel=1e-6)       # 0.1 x 10 mol/s
+    assert extents["C2H6 + H2 => 2 CH4"] == pytest.approx(1.0, rel=1e-6)
+    gas = ct.Solution("gri30.yaml")
+    gas.TPX = 500.0, 5e5, "C2H4:0.1, H2:0.5, N2:0.4"
+    h_feed = gas.enthalpy_mass                         # [J/kg]; mass is conserved, so h per kg is too
+    gas.HPX = h_feed, 5e5, "CH4:0.2, H2:0.3, N2:0.4"
+    assert result.adiabatic_temperature_rise + 500.0 == pytest.approx(gas.T, abs=1e-3)

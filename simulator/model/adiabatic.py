@@ -5,16 +5,21 @@ heat capacities (NASA-7 or constant-cp rows), not from a constant-cp shortcut:
 
     sum_i F_i,out h_i(T_ad) = sum_i F_i,0 h_i(T_0)      (ideal-gas enthalpies)
 
-With one reaction consuming the key species, its extent is F_key,0/|nu_key|,
-unless another reactant runs out first (then that reactant limits). With
-several reactions consuming the key species, the path with the largest heat
-release per mole of key species is taken: a worst case, which is common
-practice for screening (no source).
+The outlet is the worst case the declared reactions allow: among all forward
+extents xi_j >= 0 that keep every flow non-negative (F_0 + nu xi >= 0), first the
+largest consumption of the key species (complete conversion unless a co-reactant
+runs out first), then, among those, the largest heat release at the feed
+temperature (two linear programmes). With one reaction that is simply complete
+conversion of the key species; with several (a selective and a total oxidation,
+consecutive reactions) it is the most exothermic way to use up the key species and
+what the other reactions can still burn. Reversible reactions are taken to
+completion too, so for them the rise is an upper bound that equilibrium may cap.
+This worst-case convention is common practice for screening (no source).
 """
 import math
 
 import numpy as np
-from scipy.optimize import brentq
+from scipy.optimize import brentq, linprog
 
 from simulator.thermo.nasa7 import h_RT
 from simulator.units import R
@@ -42,24 +47,45 @@ def stream_enthalpy(F, T, nasa):
     return float(sum(F[i] * h_RT(nasa[i], T) * R * T for i in range(len(F))))
 
 
-def complete_conversion_outlet(F0, nu, key):
-    """Outlet flows for complete conversion of the key species, one candidate per reaction.
+def worst_case_extents(F0, T0, nu, key, nasa):
+    """Forward extents of the worst-case outlet (see the module docstring), [mol/s].
 
-    Yields ``(F_out, reaction_index, limited_by)`` for every reaction that consumes
-    the key species; ``limited_by`` is the index of the species that runs out
-    first (the key species, or a co-reactant).
+    Parameters
+    ----------
+    F0 : ndarray
+        Feed molar flows, [mol/s]
+    T0 : float
+        Feed temperature, [K]
+    nu : ndarray
+        (n, m) stoichiometric matrix, [-]
+    key : int
+        Index of the key species, [-]
+    nasa : ndarray
+        (n, 15) NASA-7 rows, [-]
+
+    Returns
+    -------
+    xi : ndarray or None
+        Extent of each reaction, None when no reaction consumes the key species, [mol/s]
     """
-    for j in range(nu.shape[1]):
-        if nu[key, j] >= 0:
-            continue
-        extent = F0[key] / -nu[key, j]
-        limited = key
-        for i in range(len(F0)):
-            if nu[i, j] < 0 and F0[i] / -nu[i, j] < extent:
-                extent, limited = F0[i] / -nu[i, j], i
-        F_out = F0 + nu[:, j] * extent
-        F_out[F_out < 0] = 0.0
-        yield F_out, j, limited
+    n, m = nu.shape
+    if not np.any(nu[key] < 0):
+        return None
+    h0 = np.array([h_RT(nasa[i], T0) * R * T0 for i in range(n)])
+    dH = h0 @ nu                                       # [J/mol] per unit extent
+    bound = 100.0 * float(F0.sum()) / max(float(np.min(np.abs(nu[nu != 0]))), 1e-12)
+    bounds = [(0.0, bound)] * m
+    A_ub, b_ub = -nu, F0                               # F0 + nu xi >= 0
+    first = linprog(nu[key], A_ub=A_ub, b_ub=b_ub, bounds=bounds, method="highs")
+    if not first.success:
+        return None
+    consumed = -first.fun
+    # keep that consumption (to a relative 1e-9) and release the most heat
+    A2 = np.vstack([A_ub, nu[key][None, :]])
+    b2 = np.concatenate([b_ub, [-consumed * (1.0 - 1e-9)]])
+    second = linprog(dH, A_ub=A2, b_ub=b2, bounds=bounds, method="highs")
+    xi = second.x if second.success else first.x
+    return np.clip(xi, 0.0, None)
 
 
 def adiabatic_rise(F0, T0, nu, key, nasa):
@@ -83,31 +109,39 @@ def adiabatic_rise(F0, T0, nu, key, nasa):
     rise : float
         T_ad - T0, negative for endothermic reactions, [K]
     info : dict
-        ``reaction`` index used, ``limited_by`` species index, ``outlet_temperature`` [K];
-        ``note`` when the balance has no solution between T_MIN and T_MAX (the rise is then NaN:
-        complete conversion cannot happen adiabatically, e.g. a strongly endothermic feed)
+        ``reaction`` (index of the reaction releasing the most heat in the worst case),
+        ``extents`` [mol/s] of every reaction, ``limited_by`` (index of a reactant that ran
+        out, the key species if it did), ``outlet_temperature`` [K]; ``note`` when the
+        balance has no solution between T_MIN and T_MAX (the rise is then NaN: complete
+        conversion cannot happen adiabatically, e.g. a strongly endothermic feed)
     """
+    xi = worst_case_extents(np.asarray(F0, dtype=float), T0, nu, key, nasa)
+    if xi is None:
+        return math.nan, {}
+    F_out = np.clip(F0 + nu @ xi, 0.0, None)
+    n = len(F0)
+    h0 = np.array([h_RT(nasa[i], T0) * R * T0 for i in range(n)])
+    heat = -(h0 @ nu) * xi
+    main = int(np.argmax(heat)) if np.any(heat > 0) else int(np.argmax(xi))
+    reactants = [i for i in range(n) if F0[i] > 0 and F_out[i] <= 1e-9 * F0[i]]
+    limited = key if key in reactants else (reactants[0] if reactants else key)
+    info = {"reaction": main, "extents": [float(v) for v in xi], "limited_by": limited}
     H0 = stream_enthalpy(F0, T0, nasa)
-    candidates = []
-    for F_out, j, limited in complete_conversion_outlet(F0, nu, key):
-        def balance(T):
-            return stream_enthalpy(F_out, T, nasa) - H0
 
-        if balance(T0) < 0:      # exothermic: expand upward
-            lo, hi = T0, T0 * 1.5
-            while balance(hi) < 0 and hi < T_MAX:
-                lo, hi = hi, min(hi * 1.5, T_MAX)
-        else:                    # endothermic: expand downward
-            lo, hi = T0 / 1.5, T0
-            while balance(lo) > 0 and lo > T_MIN:
-                hi, lo = lo, max(lo / 1.5, T_MIN)
-        if balance(lo) * balance(hi) > 0:
-            candidates.append((math.nan, {"reaction": j, "limited_by": limited, "outlet_temperature": math.nan,
-                                          "note": f"no solution between {T_MIN:g} K and {T_MAX:g} K"}))
-            continue
-        T_ad = brentq(balance, lo, hi, xtol=1e-9, rtol=1e-13)
-        candidates.append((T_ad - T0, {"reaction": j, "limited_by": limited, "outlet_temperature": T_ad}))
-    finite = [c for c in candidates if math.isfinite(c[0])]
-    if finite:
-        return max(finite, key=lambda c: c[0])
-    return candidates[0] if candidates else (math.nan, {})
+    def balance(T):
+        return stream_enthalpy(F_out, T, nasa) - H0
+
+    if balance(T0) < 0:      # exothermic: expand upward
+        lo, hi = T0, T0 * 1.5
+        while balance(hi) < 0 and hi < T_MAX:
+            lo, hi = hi, min(hi * 1.5, T_MAX)
+    else:                    # endothermic: expand downward
+        lo, hi = T0 / 1.5, T0
+        while balance(lo) > 0 and lo > T_MIN:
+            hi, lo = lo, max(lo / 1.5, T_MIN)
+    if balance(lo) * balance(hi) > 0:
+        info.update(outlet_temperature=math.nan, note=f"no solution between {T_MIN:g} K and {T_MAX:g} K")
+        return math.nan, info
+    T_ad = brentq(balance, lo, hi, xtol=1e-9, rtol=1e-13)
+    info["outlet_temperature"] = T_ad
+    return T_ad - T0, info
