@@ -67,6 +67,7 @@ heat_of_adsorption = "-10 kJ/mol"
 BED = '[bed]\nparticle_diameter = "3 mm"\nvoid_fraction = 0.4\nbulk_density = "1200 kg/m^3"'
 
 
+@pytest.mark.published("hougen_watson1947", "LHHW rate form evaluated by hand")
 def test_lhhw_rate_equals_the_hand_formula(write_case):
     # Langmuir-Hinshelwood-Hougen-Watson form: r = k pA pB / (1 + K_A pA + K_H sqrt(pH))^2, K = K0 exp(-dH/RT)
     case = _case(write_case, reaction=LHHW, x="{ C2H4 = 0.2, H2 = 0.3, N2 = 0.5 }", key="C2H4", bed=BED)
@@ -84,6 +85,7 @@ def test_lhhw_rate_equals_the_hand_formula(write_case):
     assert rates[0] == pytest.approx(r_mass * 1200.0, rel=1e-12)       # per m^3 of bed
 
 
+@pytest.mark.published("cantera", "equilibrate('TP'): Gibbs minimisation on the same species data")
 def test_reversible_rate_runs_to_the_equilibrium_cantera_computes(write_case):
     # water-gas shift, isothermal and long enough to equilibrate; Cantera's equilibrate("TP") on the same
     # species is an independent calculation of the same equilibrium (Gibbs minimisation, not our K)
@@ -129,6 +131,7 @@ def test_co_current_coolant_takes_up_exactly_the_heat_the_gas_loses(write_case):
     assert result.Tc[-1] > 480.0 and result.closure["energy_relative"] < 1e-7
 
 
+@pytest.mark.published("fluids", "fluids.friction.Clamond (Colebrook solved exactly) in Darcy-Weisbach")
 def test_pipe_friction_gradient_equals_darcy_weisbach_with_fluids(write_case):
     # inlet gradient of an inert flow against the independent fluids package (Colebrook via Clamond)
     fluids = pytest.importorskip("fluids")
@@ -162,6 +165,7 @@ def test_feed_given_as_mass_or_volumetric_flow(write_case, flow):
         assert total == pytest.approx(0.5 * 5e5 / (R * 600.0), rel=1e-12)
 
 
+@pytest.mark.published("cantera", "enthalpy balance at fixed composition (HPX) on the same NASA data")
 def test_adiabatic_rise_takes_the_worst_case_over_several_reactions(write_case):
     # C2H4 + H2 => C2H6 then C2H6 + H2 => 2 CH4 with H2 in excess: the worst case converts all
     # ethylene and then hydrogenolyses all the ethane (extents 0.1 and 0.1 per mol of feed). The

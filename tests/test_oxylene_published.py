@@ -27,7 +27,7 @@ def _run(cases_dir, p0, limit=None):
     return simulate(load_case_dict(raw, str(cases_dir / CASE)))
 
 
-@pytest.mark.published("froment1967", "hot-spot table of the reproduction, p0 = 0.011-0.0175 atm")
+@pytest.mark.published("froment1967", "published model and data; check values from an independent reproduction (not printed values), p0 = 0.011-0.0175 atm")
 @pytest.mark.parametrize("p0", sorted(HOT_SPOTS))
 def test_hot_spot_against_published_case(cases_dir, p0):
     T_star, z_star = HOT_SPOTS[p0]
@@ -38,7 +38,7 @@ def test_hot_spot_against_published_case(cases_dir, p0):
     assert result.hot_spot["position_m"] == pytest.approx(z_star, abs=0.005)
 
 
-@pytest.mark.published("froment1967", "runaway between p0 = 0.0175 and 0.018 atm")
+@pytest.mark.published("froment1967", "runaway between p0 = 0.0175 and 0.018 atm (independent reproduction; the source's figure shows it just above 0.018 atm, from memory)")
 def test_hot_spot_jumps_between_0_0175_and_0_018_atm(cases_dir):
     below = _run(cases_dir, 0.0175, limit="2000 K").hot_spot["temperature_K"]
     above = _run(cases_dir, 0.018, limit="2000 K").hot_spot["temperature_K"]

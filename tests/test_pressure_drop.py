@@ -69,7 +69,7 @@ def test_ergun_liquid_row_two_metres():
     assert dP == pytest.approx(4370.4622, abs=5e-5)
 
 
-@pytest.mark.published("ergun1952", "docstring example of STYLE.md section 4")
+@pytest.mark.published("ergun1952", "Ergun equation evaluated by hand (the function's docstring example)")
 def test_ergun_style_example():
     # 1687.5 Pa/m viscous + 6562.5 Pa/m inertial, exact closed form
     assert ergun_1952(1.0, 1.2, 1.8e-5, 3e-3, 0.4) == pytest.approx(-8250.0, rel=1e-12)

@@ -539,6 +539,7 @@ def test_methanator_rise_against_rule_of_thumb(methanator_rise):
     assert methanator_rise == pytest.approx(74.0, abs=1.0)
 
 
+@pytest.mark.published("cantera", "Peng-Robinson chemical potentials of Cantera's own PR phase")
 def test_reversible_reaction_on_peng_robinson_reaches_fugacity_equilibrium(cases_dir, tmp_path):
     """The methanol demo made isothermal, isobaric and very long runs to chemical equilibrium; at its outlet
     the reaction's sum nu_i mu_i computed by Cantera's own Peng-Robinson phase (an independent

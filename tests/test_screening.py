@@ -25,7 +25,7 @@ def report():
     return screen(load_case(Path(__file__).parents[1] / "cases" / CASE))
 
 
-@pytest.mark.published("morbidelli_varma1988", "criterion applied to the Froment (1967) tube; reproduction 0.01777 atm")
+@pytest.mark.published("morbidelli_varma1988", "criterion applied to the Froment (1967) tube; 0.01777 atm from an independent reproduction, not a printed value")
 def test_morbidelli_varma_critical_feed_fraction(report):
     entry = report["critical"]["feed_mole_fraction"]
     assert entry["found"]
@@ -35,7 +35,7 @@ def test_morbidelli_varma_critical_feed_fraction(report):
 
 
 @pytest.mark.published("van_welsenaere_froment1970", "maxima-curve criterion on the Froment (1967) tube; "
-                                                     "reproduction 0.01614 atm, T_m - Tw = 31.62 K")
+                                                     "0.01614 atm from an independent reproduction, T_m - Tw = 31.62 K derived")
 def test_van_welsenaere_froment_maxima_curve(report):
     vwf = report["criteria"]["van_welsenaere_froment"]
     assert vwf["critical"] - 625.0 == pytest.approx(31.62, abs=0.01)
@@ -43,7 +43,7 @@ def test_van_welsenaere_froment_maxima_curve(report):
     assert vwf["verdict"] == "safe"                                  # T*(0.015) = 650.0 K < 656.6 K
 
 
-@pytest.mark.published("thomas_bowes1961", "inflection test on the Froment (1967) tube; reproduction 0.01761 atm")
+@pytest.mark.published("thomas_bowes1961", "inflection test on the Froment (1967) tube; 0.01761 atm from an independent reproduction")
 def test_inflection_criterion(report):
     infl = report["criteria"]["van_welsenaere_froment"]["inflection"]
     assert infl["critical_feed_mole_fraction"] == pytest.approx(0.01761, abs=5e-5)
@@ -60,7 +60,7 @@ def test_ordering_of_the_criteria(report):
     assert c["semenov"]["verdict"] == "undecided"            # psi = 0.46 > psi_c(21.8) = 0.386
 
 
-@pytest.mark.published("froment1967", "derived groups of the published tube (runaway.md section 2)")
+@pytest.mark.published("froment1967", "groups derived from the published tube data (independent derivation)")
 def test_groups_of_the_published_tube(report):
     g = report["groups"]
     assert g["gamma"] == pytest.approx(21.82, abs=0.01)
@@ -104,3 +104,11 @@ def test_cli_writes_screening_files(cases_dir, tmp_path, capsys):
 def test_uncooled_case_is_refused(cases_dir):
     with pytest.raises(CaseError, match=r"heat\.mode = 'isothermal'"):
         screen(load_case(cases_dir / "decomposition_empty_tube.toml"))
+
+
+@pytest.mark.published("froment1967", "runaway appears just above p0 = 0.018 atm in the source's profile figure "
+                                      "(from memory): +-3 %")
+def test_critical_feed_fraction_near_the_remembered_published_value(report):
+    # the remembered published value is approximate (a figure, not a table); tolerance 3 % as the
+    # project's reference notes give for this comparison
+    assert 0.0175 <= report["critical"]["feed_mole_fraction"]["value"] <= 0.0186

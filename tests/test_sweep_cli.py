@@ -27,7 +27,7 @@ def _rows(path):
         return list(csv.DictReader(handle))
 
 
-@pytest.mark.published("morbidelli_varma1988", "boundary on a sweep grid of the Froment (1967) tube, 0.01777 atm")
+@pytest.mark.published("morbidelli_varma1988", "boundary on a sweep grid of the Froment (1967) tube; 0.01777 atm from an independent reproduction")
 def test_sweep_boundary_matches_the_morbidelli_varma_critical_value(cases_dir, tmp_path):
     out = tmp_path / "sweep"
     assert main(["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.0172:0.0184:25",

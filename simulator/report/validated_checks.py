@@ -15,29 +15,71 @@ CHECKS = ({'check': 'Textbook branch equals Levenspiel volume with expansion',
               'from memory)',
   'where': 'ch. 5, PFR performance equation with expansion, first order (eq. 5.21 from memory)',
   'test': 'tests/test_assumptions.py::test_textbook_branch_equals_levenspiel_volume_with_expansion'},
+ {'check': 'Lhhw rate equals the hand formula',
+  'source': 'O.A. Hougen, K.M. Watson, Chemical Process Principles, Part III: Kinetics and Catalysis, Wiley, '
+            '1947 (form of the Langmuir-Hinshelwood-Hougen-Watson rate; from memory) — LHHW rate form '
+            'evaluated by hand',
+  'key': 'hougen_watson1947',
+  'citation': 'O.A. Hougen, K.M. Watson, Chemical Process Principles, Part III: Kinetics and Catalysis, '
+              'Wiley, 1947 (form of the Langmuir-Hinshelwood-Hougen-Watson rate; from memory)',
+  'where': 'LHHW rate form evaluated by hand',
+  'test': 'tests/test_balances.py::test_lhhw_rate_equals_the_hand_formula'},
+ {'check': 'Reversible rate runs to the equilibrium Cantera computes',
+  'source': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+            "software toolkit for chemical kinetics, thermodynamics, and transport processes', version 3.2, "
+            "https://www.cantera.org — equilibrate('TP'): Gibbs minimisation on the same species data",
+  'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'where': "equilibrate('TP'): Gibbs minimisation on the same species data",
+  'test': 'tests/test_balances.py::test_reversible_rate_runs_to_the_equilibrium_cantera_computes'},
+ {'check': 'Pipe friction gradient equals darcy weisbach with fluids',
+  'source': 'C. Bell et al., fluids: fluid dynamics component of Chemical Engineering Design Library '
+            "(ChEDL), PyPI package 'fluids' — fluids.friction.Clamond (Colebrook solved exactly) in "
+            'Darcy-Weisbach',
+  'key': 'fluids',
+  'citation': 'C. Bell et al., fluids: fluid dynamics component of Chemical Engineering Design Library '
+              "(ChEDL), PyPI package 'fluids'",
+  'where': 'fluids.friction.Clamond (Colebrook solved exactly) in Darcy-Weisbach',
+  'test': 'tests/test_balances.py::test_pipe_friction_gradient_equals_darcy_weisbach_with_fluids'},
+ {'check': 'Adiabatic rise takes the worst case over several reactions',
+  'source': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+            "software toolkit for chemical kinetics, thermodynamics, and transport processes', version 3.2, "
+            'https://www.cantera.org — enthalpy balance at fixed composition (HPX) on the same NASA data',
+  'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'where': 'enthalpy balance at fixed composition (HPX) on the same NASA data',
+  'test': 'tests/test_balances.py::test_adiabatic_rise_takes_the_worst_case_over_several_reactions'},
  {'check': 'Hot spot against published case',
   'source': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
             "18-27, 1967 (content from memory); parameters as reproduced in the project's reference notes "
             '(shared/reference/runaway.md, section 2), hot-spot values from an independent reproduction '
-            'there (LSODA, rtol 1e-10) — hot-spot table of the reproduction, p0 = 0.011-0.0175 atm',
+            'there (LSODA, rtol 1e-10) — published model and data; check values from an independent '
+            'reproduction (not printed values), p0 = 0.011-0.0175 atm',
   'key': 'froment1967',
   'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
               "18-27, 1967 (content from memory); parameters as reproduced in the project's reference notes "
               '(shared/reference/runaway.md, section 2), hot-spot values from an independent reproduction '
               'there (LSODA, rtol 1e-10)',
-  'where': 'hot-spot table of the reproduction, p0 = 0.011-0.0175 atm',
+  'where': 'published model and data; check values from an independent reproduction (not printed values), p0 '
+           '= 0.011-0.0175 atm',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_against_published_case'},
  {'check': 'Hot spot jumps between 0.0175 and 0.018 atm',
   'source': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
             "18-27, 1967 (content from memory); parameters as reproduced in the project's reference notes "
             '(shared/reference/runaway.md, section 2), hot-spot values from an independent reproduction '
-            'there (LSODA, rtol 1e-10) — runaway between p0 = 0.0175 and 0.018 atm',
+            'there (LSODA, rtol 1e-10) — runaway between p0 = 0.0175 and 0.018 atm (independent '
+            "reproduction; the source's figure shows it just above 0.018 atm, from memory)",
   'key': 'froment1967',
   'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
               "18-27, 1967 (content from memory); parameters as reproduced in the project's reference notes "
               '(shared/reference/runaway.md, section 2), hot-spot values from an independent reproduction '
               'there (LSODA, rtol 1e-10)',
-  'where': 'runaway between p0 = 0.0175 and 0.018 atm',
+  'where': "runaway between p0 = 0.0175 and 0.018 atm (independent reproduction; the source's figure shows "
+           'it just above 0.018 atm, from memory)',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_jumps_between_0_0175_and_0_018_atm'},
  {'check': 'Ergun 2a fluids docstring example',
   'source': "S. Ergun, 'Fluid flow through packed columns', Chem. Eng. Prog. 48(2), 89-94, 1952 — Ergun "
@@ -69,11 +111,11 @@ CHECKS = ({'check': 'Textbook branch equals Levenspiel volume with expansion',
   'where': 'Ergun equation; hand value of check-values 2, third row',
   'test': 'tests/test_pressure_drop.py::test_ergun_liquid_row_two_metres'},
  {'check': 'Ergun style example',
-  'source': "S. Ergun, 'Fluid flow through packed columns', Chem. Eng. Prog. 48(2), 89-94, 1952 — docstring "
-            'example of STYLE.md section 4',
+  'source': "S. Ergun, 'Fluid flow through packed columns', Chem. Eng. Prog. 48(2), 89-94, 1952 — Ergun "
+            "equation evaluated by hand (the function's docstring example)",
   'key': 'ergun1952',
   'citation': "S. Ergun, 'Fluid flow through packed columns', Chem. Eng. Prog. 48(2), 89-94, 1952",
-  'where': 'docstring example of STYLE.md section 4',
+  'where': "Ergun equation evaluated by hand (the function's docstring example)",
   'test': 'tests/test_pressure_drop.py::test_ergun_style_example'},
  {'check': 'Ergun against fluids',
   'source': 'C. Bell et al., fluids: fluid dynamics component of Chemical Engineering Design Library '
@@ -209,7 +251,7 @@ CHECKS = ({'check': 'Textbook branch equals Levenspiel volume with expansion',
               "(ChEDL), PyPI package 'fluids'",
   'where': 'fluids.friction.Haaland (docstring example 1e5, 1e-4)',
   'test': 'tests/test_pressure_drop.py::test_haaland_against_fluids_and_close_to_colebrook'},
- {'check': 'Pr departure against direct cubic and cantera',
+ {'check': 'Pr departure against direct cubic and Cantera',
   'source': "D.-Y. Peng, D.B. Robinson, 'A new two-constant equation of state', Ind. Eng. Chem. Fundam. "
             '15(1), 59-64, 1976 (equations from memory) — PR cubic, a = 0.45724 R^2 Tc^2/Pc, b = 0.07780 R '
             'Tc/Pc, kappa(omega), eqs. from memory',
@@ -300,6 +342,16 @@ CHECKS = ({'check': 'Textbook branch equals Levenspiel volume with expansion',
               'Chem. Res. 53(6), 2498-2508, 2014',
   'where': 'ideal-gas Cp0molar of Hydrogen, Nitrogen, Methane, Water',
   'test': 'tests/test_real_gas.py::test_methanator_adiabatic_rise_against_hand_enthalpy_balance'},
+ {'check': 'Reversible reaction on Peng Robinson reaches fugacity equilibrium',
+  'source': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+            "software toolkit for chemical kinetics, thermodynamics, and transport processes', version 3.2, "
+            "https://www.cantera.org — Peng-Robinson chemical potentials of Cantera's own PR phase",
+  'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'where': "Peng-Robinson chemical potentials of Cantera's own PR phase",
+  'test': 'tests/test_real_gas.py::test_reversible_reaction_on_peng_robinson_reaches_fugacity_equilibrium'},
  {'check': 'Semenov critical against closed form table',
   'source': "N.N. Semenov, 'Zur Theorie des Verbrennungsprozesses', Z. Phys. 48, 571, 1928 (from memory); "
             'psi_c = 1/e at gamma = inf confirmed in F.A. Williams, Combustion Theory, 2nd ed., App. B — '
@@ -411,54 +463,73 @@ CHECKS = ({'check': 'Textbook branch equals Levenspiel volume with expansion',
  {'check': 'Morbidelli Varma critical feed fraction',
   'source': "M. Morbidelli, A. Varma, 'A generalized criterion for parametric sensitivity: application to "
             "thermal explosion theory', Chem. Eng. Sci. 43, 91, 1988 (from memory); also AIChE J. 28, 705, "
-            '1982 (from memory) — criterion applied to the Froment (1967) tube; reproduction 0.01777 atm',
+            '1982 (from memory) — criterion applied to the Froment (1967) tube; 0.01777 atm from an '
+            'independent reproduction, not a printed value',
   'key': 'morbidelli_varma1988',
   'citation': "M. Morbidelli, A. Varma, 'A generalized criterion for parametric sensitivity: application to "
               "thermal explosion theory', Chem. Eng. Sci. 43, 91, 1988 (from memory); also AIChE J. 28, 705, "
               '1982 (from memory)',
-  'where': 'criterion applied to the Froment (1967) tube; reproduction 0.01777 atm',
+  'where': 'criterion applied to the Froment (1967) tube; 0.01777 atm from an independent reproduction, not '
+           'a printed value',
   'test': 'tests/test_screening.py::test_morbidelli_varma_critical_feed_fraction'},
  {'check': 'Van Welsenaere Froment maxima curve',
   'source': "R.J. Van Welsenaere, G.F. Froment, 'Parametric sensitivity and runaway in fixed bed catalytic "
             "reactors', Chem. Eng. Sci. 25, 1503-1516, 1970 (title page and abstract seen; statements of "
-            'criteria I and II from memory) — maxima-curve criterion on the Froment (1967) tube; '
-            'reproduction 0.01614 atm, T_m - Tw = 31.62 K',
+            'criteria I and II from memory) — maxima-curve criterion on the Froment (1967) tube; 0.01614 atm '
+            'from an independent reproduction, T_m - Tw = 31.62 K derived',
   'key': 'van_welsenaere_froment1970',
   'citation': "R.J. Van Welsenaere, G.F. Froment, 'Parametric sensitivity and runaway in fixed bed catalytic "
               "reactors', Chem. Eng. Sci. 25, 1503-1516, 1970 (title page and abstract seen; statements of "
               'criteria I and II from memory)',
-  'where': 'maxima-curve criterion on the Froment (1967) tube; reproduction 0.01614 atm, T_m - Tw = 31.62 K',
+  'where': 'maxima-curve criterion on the Froment (1967) tube; 0.01614 atm from an independent reproduction, '
+           'T_m - Tw = 31.62 K derived',
   'test': 'tests/test_screening.py::test_van_welsenaere_froment_maxima_curve'},
  {'check': 'Inflection criterion',
   'source': "P.H. Thomas, P.C. Bowes, 'Some aspects of the self-heating and ignition of solid cellulosic "
             "materials', Br. J. Appl. Phys. 12, 222, 1961 (from memory) — inflection test on the Froment "
-            '(1967) tube; reproduction 0.01761 atm',
+            '(1967) tube; 0.01761 atm from an independent reproduction',
   'key': 'thomas_bowes1961',
   'citation': "P.H. Thomas, P.C. Bowes, 'Some aspects of the self-heating and ignition of solid cellulosic "
               "materials', Br. J. Appl. Phys. 12, 222, 1961 (from memory)",
-  'where': 'inflection test on the Froment (1967) tube; reproduction 0.01761 atm',
+  'where': 'inflection test on the Froment (1967) tube; 0.01761 atm from an independent reproduction',
   'test': 'tests/test_screening.py::test_inflection_criterion'},
  {'check': 'Groups of the published tube',
   'source': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
             "18-27, 1967 (content from memory); parameters as reproduced in the project's reference notes "
             '(shared/reference/runaway.md, section 2), hot-spot values from an independent reproduction '
-            'there (LSODA, rtol 1e-10) — derived groups of the published tube (runaway.md section 2)',
+            'there (LSODA, rtol 1e-10) — groups derived from the published tube data (independent '
+            'derivation)',
   'key': 'froment1967',
   'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
               "18-27, 1967 (content from memory); parameters as reproduced in the project's reference notes "
               '(shared/reference/runaway.md, section 2), hot-spot values from an independent reproduction '
               'there (LSODA, rtol 1e-10)',
-  'where': 'derived groups of the published tube (runaway.md section 2)',
+  'where': 'groups derived from the published tube data (independent derivation)',
   'test': 'tests/test_screening.py::test_groups_of_the_published_tube'},
+ {'check': 'Critical feed fraction near the remembered published value',
+  'source': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
+            "18-27, 1967 (content from memory); parameters as reproduced in the project's reference notes "
+            '(shared/reference/runaway.md, section 2), hot-spot values from an independent reproduction '
+            "there (LSODA, rtol 1e-10) — runaway appears just above p0 = 0.018 atm in the source's profile "
+            'figure (from memory): +-3 %',
+  'key': 'froment1967',
+  'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
+              "18-27, 1967 (content from memory); parameters as reproduced in the project's reference notes "
+              '(shared/reference/runaway.md, section 2), hot-spot values from an independent reproduction '
+              'there (LSODA, rtol 1e-10)',
+  'where': "runaway appears just above p0 = 0.018 atm in the source's profile figure (from memory): +-3 %",
+  'test': 'tests/test_screening.py::test_critical_feed_fraction_near_the_remembered_published_value'},
  {'check': 'Sweep boundary matches the Morbidelli Varma critical value',
   'source': "M. Morbidelli, A. Varma, 'A generalized criterion for parametric sensitivity: application to "
             "thermal explosion theory', Chem. Eng. Sci. 43, 91, 1988 (from memory); also AIChE J. 28, 705, "
-            '1982 (from memory) — boundary on a sweep grid of the Froment (1967) tube, 0.01777 atm',
+            '1982 (from memory) — boundary on a sweep grid of the Froment (1967) tube; 0.01777 atm from an '
+            'independent reproduction',
   'key': 'morbidelli_varma1988',
   'citation': "M. Morbidelli, A. Varma, 'A generalized criterion for parametric sensitivity: application to "
               "thermal explosion theory', Chem. Eng. Sci. 43, 91, 1988 (from memory); also AIChE J. 28, 705, "
               '1982 (from memory)',
-  'where': 'boundary on a sweep grid of the Froment (1967) tube, 0.01777 atm',
+  'where': 'boundary on a sweep grid of the Froment (1967) tube; 0.01777 atm from an independent '
+           'reproduction',
   'test': 'tests/test_sweep_cli.py::test_sweep_boundary_matches_the_morbidelli_varma_critical_value'},
  {'check': 'Formation enthalpy against JANAF',
   'source': 'M.W. Chase, NIST-JANAF Thermochemical Tables, 4th ed., J. Phys. Chem. Ref. Data Monograph 9, '
