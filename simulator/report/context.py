@@ -450,16 +450,32 @@ def _hot_spot_flag(case, result, screening):
     if case.heat.mode in COOLED:
         rise = hot.get("rise_above_coolant_K")
         rise = T_hot - T_ref if rise is None else rise
-        if rise > scale or near_limit:
-            why = (f"it lies {fixed(rise)} K above the coolant, more than {scale_text} (about where runaway "
-                   f"sets in by the maxima-curve criterion)" if rise > scale else
-                   f"it is within {scale_text} of the temperature limit")
+        T_m = None
+        if screening is not None:
+            T_m = screening.get("criteria", {}).get("van_welsenaere_froment", {}).get("critical")
+        if _finite(T_m):
+            beyond = T_hot > T_m
+            criterion = (f"the maxima-curve temperature T_m = {fixed(T_m)} K (Van Welsenaere-Froment, where "
+                         f"runaway sets in by that criterion)")
+        else:
+            beyond = rise > scale
+            criterion = f"{scale_text} (the approximate distance to the maxima curve)"
+        close = _finite(T_m) and not beyond and T_m - T_hot < 0.25 * scale
+        if beyond or near_limit or close:
+            if beyond:
+                why = f"it lies {fixed(rise)} K above the coolant and exceeds {criterion}"
+            elif close:
+                why = (f"it lies {fixed(rise)} K above the coolant, only {fixed(T_m - T_hot)} K below {criterion}; "
+                       f"closer than a quarter of {scale_text}")
+            else:
+                why = f"it is within {scale_text} of the temperature limit"
             return {"level": "attention", "label": "Hot spot",
                     "text": f"Hot spot {where}: {why}{limit_text}."}
         see = (" How sensitive it is to the operating conditions is judged under Runaway risk."
                if screening is not None and screening.get("risk") != "adequate margin" else "")
+        below = (f"below T_m = {fixed(T_m)} K of the maxima curve" if _finite(T_m) else f"below {scale_text}")
         return {"level": "ok", "label": "Hot spot",
-                "text": f"Hot spot {where}, {fixed(rise)} K above the coolant, below {scale_text}{limit_text}.{see}"}
+                "text": f"Hot spot {where}, {fixed(rise)} K above the coolant, {below}{limit_text}.{see}"}
     # adiabatic
     if not _finite(limit):
         return {"level": "attention", "label": "Hot spot",
