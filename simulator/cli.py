@@ -247,6 +247,7 @@ def _sweep(args):
     raw, case_dir = _raw_case(args.case)
     specs = [parse_vary(v) for v in args.vary]
     paths = [spec.path for spec in specs]
+    _check_vary_values(raw, case_dir, specs, args.case)
     engine = args.engine
     if engine != "pool":
         model = build_model(load_case(args.case))
@@ -270,6 +271,27 @@ def _sweep(args):
         print(f"figure: {path}")
     print(f"results: {args.out}/results.csv, {args.out}/results.sqlite")
     return 0
+
+
+def _check_vary_values(raw, case_dir, specs, case_path):
+    """Every value of every --vary, applied alone to the case, must give a valid case (all problems at once)."""
+    from simulator.case.load import load_case_dict
+    from simulator.errors import CaseError
+    from simulator.sweeps.paths import apply_values, check_vary
+
+    problems = []
+    for spec in specs:
+        check_vary(raw, spec)
+        for value, text in zip(spec.values_si, spec.values_text):
+            try:
+                load_case_dict(apply_values(raw, {spec.path: float(value)}), source_path=str(case_path),
+                               case_dir=case_dir)
+            except (CaseError, ValueError) as err:
+                lines = err.problems if isinstance(err, CaseError) else [str(err)]
+                problems.append(f"--vary {spec.path} = {text}: " + "; ".join(
+                    line.split(": ", 1)[-1] for line in lines))
+    if problems:
+        raise CaseError(problems[:20] + ([f"... and {len(problems) - 20} more"] if len(problems) > 20 else []))
 
 
 def _uncertainty(args):
