@@ -71,6 +71,9 @@ def worst_case_extents(F0, T0, nu, key, nasa):
     n, m = nu.shape
     if not np.any(nu[key] < 0):
         return None
+    if m == 1:       # one reaction: its extent is set by the first reactant to run out (no LP needed)
+        reactants = nu[:, 0] < 0
+        return np.array([float(np.min(F0[reactants] / -nu[reactants, 0]))])
     h0 = np.array([h_RT(nasa[i], T0) * R * T0 for i in range(n)])
     dH = h0 @ nu                                       # [J/mol] per unit extent
     bound = 100.0 * float(F0.sum()) / max(float(np.min(np.abs(nu[nu != 0]))), 1e-12)
