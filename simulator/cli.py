@@ -127,7 +127,7 @@ def main(argv=None):
             raise
         where = f" {err.filename}" if getattr(err, "filename", None) else ""
         print(f"error: cannot write or read{where}: {err.strerror or err}", file=sys.stderr)
-        return 1
+        return 2 if isinstance(err, (NotADirectoryError, FileExistsError, IsADirectoryError)) else 1
     except KeyboardInterrupt:
         print("interrupted", file=sys.stderr)
         return 130
@@ -280,6 +280,7 @@ def _check_vary_values(raw, case_dir, specs, case_path):
     from simulator.sweeps.paths import apply_values, check_vary
 
     problems = []
+    raw = dict(raw, design={k: v for k, v in raw.get("design", {}).items() if k != "temperature_limit"})
     for spec in specs:
         check_vary(raw, spec)
         for value, text in zip(spec.values_si, spec.values_text):

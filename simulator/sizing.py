@@ -8,7 +8,8 @@
     doubling and then bisection on whole numbers.
 
 Requirements honoured: the target conversion, ``design.max_pressure_drop`` (over
-the length used) and ``design.temperature_limit`` (hot spot below it). The
+the length used), ``design.temperature_limit`` (hot spot below it) and that the tube
+passes the feed at all (pressure above 1 % of the feed pressure to its end). The
 requirement that decides the answer is named as the binding constraint.
 """
 import dataclasses
@@ -48,11 +49,16 @@ def _evaluate(case, kind):
         T_max = max(float(result.T.max()), hot["temperature_K"])
         dp = float(result.P[0] - result.P.min())
     limits = case.design
+    # where a stop happened matters: a tube cut at the target (a) is not affected by a stop beyond it
+    end = result.case.tube.length if whole_tube or not d["reached"] else d["length_m"]
+    stop_T = result.events.get("temperature_limit", {}).get("position_m")
+    stop_P = result.events.get("pressure_floor", {}).get("position_m")
     checks = {
         "target_conversion": bool(d["reached"]),
         "max_pressure_drop": math.isnan(limits.max_pressure_drop) or dp <= limits.max_pressure_drop,
         "temperature_limit": (math.isnan(limits.temperature_limit) or
-                              (T_max < limits.temperature_limit and result.status != "stopped")),
+                              (T_max < limits.temperature_limit and (stop_T is None or stop_T > end))),
+        "tube_passes_feed": stop_P is None or stop_P > end,
     }
     if result.status == "failed":
         checks["solver"] = False
@@ -64,7 +70,7 @@ def _evaluate(case, kind):
     }
 
 
-PRIORITY = ("temperature_limit", "max_pressure_drop", "target_conversion", "solver")
+PRIORITY = ("temperature_limit", "tube_passes_feed", "max_pressure_drop", "target_conversion", "solver")
 
 
 def binding(cand):
@@ -98,7 +104,9 @@ def length_for_count(case):
 
 def _why_not(cand):
     failing = [k for k, ok in cand["meets"].items() if not ok]
-    return ("no feasible length with this tube count: " + ", ".join(failing) +
+    what = ("no feasible length with this tube count" if cand["kind"].startswith("length")
+            else "no feasible tube count for this length")
+    return (f"{what}: " + ", ".join(failing) +
             f" (outlet conversion {cand['outlet_conversion']:.4f}, hot spot {cand['hot_spot_K']:.1f} K, "
             f"pressure drop {cand['pressure_drop_Pa']:.4g} Pa)")
 

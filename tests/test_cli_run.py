@@ -76,11 +76,11 @@ def test_failed_integration_is_reported_as_failed_not_as_a_result(cases_dir, wri
     text = (cases_dir / DEMO).read_text() + '\n[solver]\nmax_step = "1e-8 m"\n'
     result = simulate(load_case(write_case(text)))
     assert result.status == "failed"
-    assert result.termination.startswith("solver failed at z = ")
+    assert result.termination.startswith("solver failed after z = ")
     assert result.z[-1] < 12.0
     code = main(["run", str(write_case(text, "fail.toml")), "--out", str(tmp_path / "o")])
     assert code == 1
-    assert "error: solver failed at z =" in capsys.readouterr().err
+    assert "error: solver failed after z =" in capsys.readouterr().err
     summary = json.loads((tmp_path / "o" / "summary.json").read_text())
     assert summary["status"] == "failed" and summary["closure"]["energy_relative"] is None
     assert summary["hot_spot"]["temperature_K"] is None and summary["outlet"]["conversion"] is None

@@ -159,3 +159,16 @@ def test_cli_writes_sizing_json(write_case, tmp_path):
     assert written["tube_count"] == direct["tube_count"]
     assert written["binding_constraint"] == direct["binding_constraint"]
     assert len(written["candidates"]) == len(direct["candidates"]) > 0
+
+
+def test_a_tube_that_cannot_pass_the_feed_is_not_feasible(write_case):
+    # a tube count so small that the pressure falls to the floor inside the tube: infeasible even
+    # without a max_pressure_drop, and named as the binding requirement when it decides the count
+    from simulator.sizing import _evaluate, _with
+
+    case = load_case(write_case(_case()))
+    few = _evaluate(_with(case, count=1), "count for the given length")   # one tube: pressure floor at ~0.4 m
+    assert few["status"] == "stopped" and not few["meets"]["tube_passes_feed"] and not few["feasible"]
+    report = size(case)
+    n = report["tube_count"]
+    assert _run(write_case, "n.toml", count=n).status == "completed"

@@ -136,3 +136,10 @@ def test_compiled_engine_refuses_what_it_cannot_run(cases_dir, tmp_path, capsys)
     code = main(["sweep", str(cases_dir / CASE), "--vary", "tube.length=2 m:3 m:2", "--out", str(tmp_path),
                  "--engine", "compiled"])
     assert code == 2 and "--engine compiled: not available" in capsys.readouterr().err
+
+
+def test_sweeps_accept_feed_temperatures_above_the_design_limit(cases_dir, tmp_path):
+    # sweeps ignore design.temperature_limit (README), so a feed hotter than it is a valid sweep point
+    assert main(["sweep", str(cases_dir / "hydrogenation_cooled_packed_bed.toml"), "--vary",
+                 "feed.temperature=600 K:700 K:2", "--out", str(tmp_path), "--engine", "pool"]) == 0
+    assert len(_rows(tmp_path / "results.csv")) == 2

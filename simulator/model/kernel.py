@@ -519,13 +519,15 @@ def _dispatchers(namespace):
 def _refresh_cache():
     import os
 
+    from simulator import units
     from simulator.model import pressure_drop
     from simulator.model.jit_cache import refresh_if_sources_changed
     from simulator.thermo import nasa7
 
     compiled = sorted(_dispatchers(globals()), key=lambda d: d.py_func.__module__ != __name__)  # own first
     if compiled and not os.environ.get("NUMBA_DISABLE_JIT"):
-        refresh_if_sources_changed("kernel", compiled, [__file__, nasa7.__file__, pressure_drop.__file__])
+        refresh_if_sources_changed("kernel", compiled, [__file__, nasa7.__file__, pressure_drop.__file__,
+                                                         units.__file__])
 
 
 _refresh_cache()

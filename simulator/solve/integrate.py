@@ -264,8 +264,13 @@ def simulate(case, model=None, length=None):
         y = ys[last_good]
         status = "failed"
         why = _explain_failure(info["message"] if not ok else "", case, L)
-        termination = (f"solver failed at z = {zs[last_good]:.6g} m of {L:.6g} m (T = {y[n]:.6g} K, "
-                       f"P = {y[n + 1]:.6g} Pa): {why}")
+        # tcur[k] is where the solver got while computing output k+1; entries after it are unset
+        furthest = zs[last_good]
+        if last_good < len(tcur) and zs[last_good] <= tcur[last_good] <= zs[min(last_good + 1, len(zs) - 1)]:
+            furthest = float(tcur[last_good])
+        beyond = f"; the solver itself got to z = {furthest:.6g} m" if furthest > zs[last_good] else ""
+        termination = (f"solver failed after z = {zs[last_good]:.6g} m of {L:.6g} m (last output point: "
+                       f"T = {y[n]:.6g} K, P = {y[n + 1]:.6g} Pa{beyond}): {why}")
         zs, ys = zs[:last_good + 1], ys[:last_good + 1]
 
     # fast dynamics between output points (a hot spot narrower than the output spacing): add the

@@ -33,6 +33,8 @@ class TubeEvaluator:
         from simulator.model.build import build_model
         from simulator.solve.integrate import simulate
 
+        raw_case = dict(raw_case, design={k: v for k, v in raw_case.get("design", {}).items()
+                                          if k != "temperature_limit"})   # sweeps ignore the limit (docstring)
         case = load_case_dict(raw_case, source_path="", case_dir=str(case_dir))
         species = _species(case)
         model = build_model(case, species=species)

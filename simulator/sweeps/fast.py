@@ -891,6 +891,7 @@ def _refresh_cache():
     """Flush this module's compiled cache when it or the kernel it calls changed (see jit_cache)."""
     from numba.core.registry import CPUDispatcher
 
+    from simulator import units
     from simulator.model import pressure_drop
     from simulator.model.jit_cache import refresh_if_sources_changed
     from simulator.thermo import nasa7
@@ -898,7 +899,7 @@ def _refresh_cache():
     compiled = [v for v in globals().values() if isinstance(v, CPUDispatcher)]
     if compiled:
         refresh_if_sources_changed("sweep-integrator", compiled,
-                                   [__file__, K.__file__, nasa7.__file__, pressure_drop.__file__])
+                                   [__file__, K.__file__, nasa7.__file__, pressure_drop.__file__, units.__file__])
 
 
 _refresh_cache()

@@ -116,7 +116,8 @@ class ResultsStore:
             if key in stored and stored[key] != value:
                 raise ResumeError(
                     f"{where}: meta {key} = {_short(value)} differs from the stored run "
-                    f"({_short(stored[key])}); use a new --out folder, or rerun with the original options to resume"
+                    f"({_short(stored[key])}); use a new --out folder, or rerun with the original options "
+                    f"and the unchanged case file to resume"
                 )
         with conn:
             conn.execute("CREATE TABLE IF NOT EXISTS meta (key TEXT PRIMARY KEY, value TEXT NOT NULL)")
