@@ -54,6 +54,21 @@ X_A, X_B, X_E, X_ACT, X_BASIS, X_REV, X_DN, X_NDEN, X_NADS = range(9)
 N_RX = 9
 
 
+@njit(cache=True, inline="always")
+def _pr_pure(T, Tc, Pc, w):
+    """Peng-Robinson a(T) [Pa*m^6/mol^2], da/dT and b [m^3/mol] of one species.
+
+    kappa from the 1976 paper for omega <= 0.491 and its 1978 extension above (as Cantera).
+    """
+    if w <= 0.491:
+        kap = 0.37464 + 1.54226 * w - 0.26992 * w * w
+    else:
+        kap = 0.379642 + 1.48503 * w - 0.164423 * w * w + 0.016666 * w * w * w
+    a0 = 0.45724 * R * R * Tc * Tc / Pc
+    sq = 1.0 + kap * (1.0 - math.sqrt(T / Tc))
+    return a0 * sq * sq, -a0 * sq * kap / math.sqrt(T * Tc), 0.07780 * R * Tc / Pc
+
+
 @njit(cache=True)
 def pr_departure(T, P, x, crit):
     """Peng-Robinson compressibility Z and enthalpy departure of a mixture.
@@ -94,18 +109,8 @@ def pr_departure(T, P, x, crit):
     ai = np.empty(n)
     dai = np.empty(n)
     for i in range(n):
-        Tc = crit[i, 0]
-        Pc = crit[i, 1]
-        w = crit[i, 2]
-        if w <= 0.491:
-            kap = 0.37464 + 1.54226 * w - 0.26992 * w * w
-        else:
-            kap = 0.379642 + 1.48503 * w - 0.164423 * w * w + 0.016666 * w * w * w
-        a0 = 0.45724 * R * R * Tc * Tc / Pc
-        sq = 1.0 + kap * (1.0 - math.sqrt(T / Tc))
-        ai[i] = a0 * sq * sq
-        dai[i] = -a0 * sq * kap / math.sqrt(T * Tc)
-        bm += x[i] * 0.07780 * R * Tc / Pc
+        ai[i], dai[i], b = _pr_pure(T, crit[i, 0], crit[i, 1], crit[i, 2])
+        bm += x[i] * b
     for i in range(n):
         for k in range(n):
             s = math.sqrt(ai[i] * ai[k])
@@ -171,16 +176,7 @@ def pr_ln_fugacity_coefficients(T, P, x, crit, out):
     ai = np.empty(n)
     bi = np.empty(n)
     for i in range(n):
-        Tc = crit[i, 0]
-        Pc = crit[i, 1]
-        w = crit[i, 2]
-        if w <= 0.491:
-            kap = 0.37464 + 1.54226 * w - 0.26992 * w * w
-        else:
-            kap = 0.379642 + 1.48503 * w - 0.164423 * w * w + 0.016666 * w * w * w
-        sq = 1.0 + kap * (1.0 - math.sqrt(T / Tc))
-        ai[i] = 0.45724 * R * R * Tc * Tc / Pc * sq * sq
-        bi[i] = 0.07780 * R * Tc / Pc
+        ai[i], _, bi[i] = _pr_pure(T, crit[i, 0], crit[i, 1], crit[i, 2])
     am = 0.0
     bm = 0.0
     for i in range(n):
