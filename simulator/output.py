@@ -61,7 +61,9 @@ def print_summary(result, stream=None):
             lines.append(f"  target X = {d['target_conversion']:.4g}    not reached in this tube")
     rise = s["adiabatic_temperature_rise_K"]
     if rise is not None:
-        lines.append(f"  adiabatic rise    {rise:+.1f} K (complete conversion of {s['key_species']})")
+        bound = (", an upper bound: reversible reactions taken to completion"
+                 if any(r.reversible for r in result.case.reactions) else "")
+        lines.append(f"  adiabatic rise    {rise:+.1f} K (complete conversion of {s['key_species']}{bound})")
     elif s["adiabatic"]:
         lines.append(f"  adiabatic rise    not defined: {s['adiabatic']['note']} (complete conversion of "
                      f"{s['key_species']} cannot happen adiabatically)")

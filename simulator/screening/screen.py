@@ -250,8 +250,10 @@ def screen(case, n_coarse=21):
         raise SimulatorError(f"the base case failed: {base_result.termination}")
     rise = base_result.adiabatic_temperature_rise
     if not (math.isfinite(rise) and rise > 0):
-        raise CaseError(f"{case.source_path}: no exothermic path for the key species "
-                        f"(adiabatic rise {rise:.4g} K): runaway screening does not apply.")
+        what = (f"adiabatic rise {rise:+.4g} K" if math.isfinite(rise)
+                else "complete conversion cannot even happen adiabatically")
+        raise CaseError(f"{case.source_path}: no exothermic path for the key species {case.design.key_species} "
+                        f"({what}): runaway screening does not apply.")
     limit = case.feed.temperature + 3.0 * rise + 500.0
     v = _Variants(case, limit)
     model = build_model(v.case, species=v.species)
