@@ -1,0 +1,339 @@
+"""Detailed sections of the report context: profiles, assumptions, screening, numerics.
+
+Each function returns one section dict of the schema in
+:mod:`simulator.report.html`: the profile plots with their captions, the
+textbook-against-full-model comparison and the assumption verdicts, the runaway
+screening (dimensionless groups, criteria, critical values and margins,
+sensitivities and their plots) and the numerics (run status, events,
+conservation closure, solver statistics). Verdict levels follow the rules of
+:mod:`simulator.report.context_verdicts`.
+"""
+import numpy as np
+
+from simulator.report.context_format import _DASH, _change, _finite, _pct, fixed, fmt
+from simulator.report.context_verdicts import (
+    _ASSUMPTION_LABELS,
+    CLOSURE_OK,
+    COOLED,
+    VERDICT_LEVELS,
+    _assumption_flag,
+    _basis_text,
+    _design_quantity,
+    _exothermic,
+    _runaway_flag,
+    _screening_reason,
+)
+
+_PARAMETER_LABELS = {"feed_mole_fraction": "feed mole fraction of {key}",
+                     "coolant_temperature": "coolant temperature", "inlet_temperature": "inlet temperature",
+                     "overall_coefficient": "wall heat-transfer coefficient U", "mass_flow": "feed mass flow"}
+
+
+# ----------------------------------------------------------------------------- profiles
+def _profiles(case, result):
+    from simulator.report import plots
+
+    z = result.z
+    key = case.design.key_species
+    cooled = case.heat.mode in COOLED
+    hot = result.hot_spot
+    target = result.design.get("length_m") if result.design.get("reached") else None
+    limit = case.design.temperature_limit if _finite(case.design.temperature_limit) else None
+    heating = cooled and float(np.mean(result.Tc)) > case.feed.temperature and not _exothermic(result)
+    medium = "Heating-medium temperature" if heating else "Coolant temperature"
+    uri = plots.profile_temperature_plot(
+        z, result.T, coolant_T=result.Tc if cooled else None,
+        hot_spot=(hot["position_m"], hot["temperature_K"]), temperature_limit=limit,
+        target_position=target, coolant_label=medium)
+    parts = [f"Process (bed) temperature along the tube; star: highest temperature {fixed(hot['temperature_K'])} K "
+             f"at z = {fmt(hot['position_m'], 3)} m ({hot['located_by']})."]
+    if cooled:
+        parts.append(f"{medium} ({case.heat.mode}).")
+    parts.append(f"Dashed horizontal line: temperature limit {fixed(limit)} K." if limit is not None
+                 else "No temperature limit is given (design.temperature_limit).")
+    if target is not None:
+        parts.append(f"Dotted vertical line: target conversion reached at z = {fmt(target, 4)} m.")
+    out = [{"title": "Temperature", "uri": uri, "caption": " ".join(parts)}]
+    X = result.conversion
+    out.append({"title": f"Conversion of {key}",
+                "uri": plots.profile_lines_plot(z, {f"Conversion of {key}": X}, "Conversion [-]"),
+                "caption": f"Conversion of the key species {key}; outlet {fixed(X[-1], 4)}"
+                           + (f", target {fmt(result.design['target_conversion'], 4)}."
+                              if result.design.get("target_conversion") is not None else ".")})
+    P_bar = result.P / 1e5
+    pd = case.pressure_drop.model
+    out.append({"title": "Pressure",
+                "uri": plots.profile_lines_plot(z, {"Absolute pressure": P_bar}, "Pressure [bar]"),
+                "caption": (f"Absolute pressure (1 bar = 100 kPa); drop {fmt((result.P[0] - result.P[-1]) / 1e3, 4)} "
+                            f"kPa with the {pd} model." if pd != "none" else
+                            "Absolute pressure (1 bar = 100 kPa); constant: no pressure-drop model "
+                            "(pressure_drop.model = \"none\").")})
+    x = result.mole_fractions
+    series = {name: x[:, i] for i, name in enumerate(result.species)}
+    out.append({"title": "Mole fractions",
+                "uri": plots.profile_lines_plot(z, series, "Mole fraction [-]"),
+                "caption": "Gas-phase mole fractions of every species."})
+    return {"plots": out}
+
+
+# ----------------------------------------------------------------------------- assumptions
+def _assumptions_block(case, assumptions):
+    if assumptions is None:
+        return {"available": False, "reason_if_not": "the assumption check was not run for this report.",
+                "paragraphs": [], "flags": [], "tables": [], "plots": []}
+    quantity, unit = _design_quantity(assumptions)
+    key = assumptions["design_quantity"]
+    t, f = assumptions["textbook"], assumptions["full"]
+    change = assumptions.get("design_change_percent")
+    paragraphs = [
+        "Textbook model: the same kinetics and mole change, but isothermal at the feed temperature, "
+        "without pressure drop and with an ideal gas. Full model: the coupled mole, energy and pressure "
+        "balances of the case. Attribution: each assumption is applied alone to the full model and the "
+        f"change of the {quantity} needed for the target conversion is reported (variant against full model).",
+    ]
+    if _finite(change):
+        paragraphs.append(f"Overall: the textbook design needs {fmt(t[key], 4)} {unit} of {quantity}, the full "
+                          f"model {fmt(f[key], 4)} {unit}: the textbook is {fixed(change, 1, sign=True)} % off.")
+    else:
+        why = ("no target conversion is given (design.target_conversion)"
+               if assumptions.get("target_conversion") is None else assumptions.get("design_change_basis"))
+        paragraphs.append(f"Overall: no design change can be computed: {why}. Outlet conversions: textbook "
+                          f"{fixed(t['outlet_conversion'], 4)}, full {fixed(f['outlet_conversion'], 4)}.")
+    entries = assumptions.get("assumptions", {})
+    changes = [e.get("design_change_percent") for e in entries.values()]
+    if _finite(change) and changes and all(_finite(c) for c in changes):
+        paragraphs.append(f"The single-assumption changes add up to {fixed(sum(changes), 1, sign=True)} % against "
+                          f"{fixed(change, 1, sign=True)} % for all together; the difference is their interaction.")
+    comparison = {
+        "caption": "Textbook against full model",
+        "columns": ["Quantity", "Textbook", "Full model"],
+        "rows": [["Length to the target [m]", fmt(t["length_m"], 4, "not reached"),
+                  fmt(f["length_m"], 4, "not reached")],
+                 [f"{quantity.capitalize()} to the target [{unit}]", fmt(t[key], 4, "not reached"),
+                  fmt(f[key], 4, "not reached")],
+                 ["Outlet conversion [-]", fixed(t["outlet_conversion"], 4), fixed(f["outlet_conversion"], 4)],
+                 ["Run status", t["status"], f["status"]]],
+    }
+    if assumptions.get("target_conversion") is None:
+        comparison["caption"] += " (no target conversion given: compare the outlet conversions)"
+    rows = []
+    for name, e in entries.items():
+        flag = _assumption_flag(name, e, case, assumptions)
+        unit_e = "" if e.get("unit") in ("-", None) else f" {e['unit']}"
+        ch = e.get("design_change_percent")
+        rows.append([f"{_ASSUMPTION_LABELS.get(name, name)}: {e.get('measure', '')}",
+                     fmt(e.get("value"), 3) + (unit_e if _finite(e.get("value")) else ""),
+                     fmt(e.get("threshold"), 3) + unit_e,
+                     {"level": flag["level"], "text": e.get("verdict", "")},
+                     _change(ch) if _finite(ch) else _basis_text(e, assumptions),
+                     e.get("threshold_source", "")])
+    verdicts = {"caption": "Assumptions: measure, verdict and design change when applied alone",
+                "columns": ["Assumption: measure", "Value", "Threshold", "Verdict",
+                            f"Change of {quantity}", "Threshold basis"],
+                "rows": rows}
+    return {"available": True, "reason_if_not": "", "paragraphs": paragraphs, "flags": [],
+            "tables": [comparison, verdicts], "plots": []}
+
+
+# ----------------------------------------------------------------------------- screening
+def _sensitivity_plots(case, screening):
+    from simulator.report import plots
+
+    log = screening.get("_log") or []
+    crit = screening.get("critical", {})
+    key = case.design.key_species
+    out = []
+    for name, crit_key, xlabel, title in (
+            ("coolant_temperature", "coolant_temperature_K", "Coolant temperature [K]",
+             "Hot spot against coolant temperature"),
+            ("feed_mole_fraction", "feed_mole_fraction", f"Feed mole fraction of {key} [-]",
+             "Hot spot against feed fraction")):
+        points = sorted({(float(v), float(T)) for p, v, T in log if p == name})
+        if len(points) < 3:
+            continue
+        x = np.array([p[0] for p in points])
+        T = np.array([p[1] for p in points])
+        entry = crit.get(crit_key, {})
+        current = entry.get("operating_value")
+        critical = entry.get("value") if entry.get("found") else None
+        uri = plots.sensitivity_plot(x, T, current_x=current, critical_x=critical, xlabel=xlabel,
+                                     ylabel="Hot-spot temperature [K]")
+        failed = int(np.sum(~np.isfinite(T)))
+        caption = (f"Hot-spot temperature of the screening runs ({len(points)} evaluations"
+                   + (f", {failed} stopped or failed, shown as gaps" if failed else "") + "); diamond: design case "
+                   f"({fmt(current, 4)}); dashed line: critical value by the Morbidelli-Varma criterion ("
+                   + (fmt(critical, 5) if critical is not None else "not found in the range scanned") + ").")
+        out.append({"title": title, "uri": uri, "caption": caption})
+    return out
+
+
+def _criteria_table(case, screening):
+    c = screening.get("criteria", {})
+    key = case.design.key_species
+    rows, notes = [], []
+
+    def verdict(entry):
+        v = entry.get("verdict", "undecided")
+        return {"level": VERDICT_LEVELS.get(v, "attention"), "text": v}
+
+    def critical_fraction(entry):
+        return fmt(entry.get("critical_feed_mole_fraction"), 4, "not found")
+
+    spec = []
+    if "semenov" in c:
+        e = c["semenov"]
+        spec.append(("Semenov (1928), no consumption", "Semenov number ψ = B/N",
+                     fmt(e.get("critical"), 4), fmt(e.get("value"), 4), _DASH, e))
+    vwf = c.get("van_welsenaere_froment")
+    if vwf:
+        spec.append(("Van Welsenaere-Froment (1970) I, maxima curve", "hot-spot temperature [K]",
+                     fixed(vwf.get("critical")), fixed(vwf.get("value")), critical_fraction(vwf), vwf))
+        infl = vwf.get("inflection")
+        if infl:
+            spec.append(("Van Welsenaere-Froment (1970) II / Thomas-Bowes (1961), inflection",
+                         "curvature of T(z) before the hot spot [K/m²]", fmt(infl.get("critical"), 3),
+                         fmt(infl.get("value"), 3), critical_fraction(infl), infl))
+    if "adler_enig" in c:
+        e = c["adler_enig"]
+        spec.append(("Adler-Enig (1964)", "curvature of T(X) before the hot spot [K]",
+                     fmt(e.get("critical"), 3), fmt(e.get("value"), 3), critical_fraction(e), e))
+    if "morbidelli_varma" in c:
+        e = c["morbidelli_varma"]
+        spec.append(("Morbidelli-Varma (1988), generalized sensitivity", e.get("parameter", ""),
+                     fmt(e.get("critical"), 4, "not found"), fmt(e.get("value"), 4),
+                     fmt(e.get("critical"), 4, "not found"), e))
+    for name, compares, critical, value, fraction, entry in spec:
+        rows.append([name, compares, critical, value, fraction, verdict(entry)])
+        if entry.get("note"):
+            notes.append([name, entry["note"]])
+    table = {"caption": "Runaway criteria at the operating point",
+             "columns": ["Criterion", "Compares", "Critical", "Design case",
+                         f"Critical feed fraction of {key}", "Verdict"],
+             "rows": rows}
+    note_table = {"caption": "How each verdict was reached", "columns": ["Criterion", "Note"], "rows": notes}
+    return table, note_table
+
+
+def _screening_block(case, result, screening, reason):
+    if screening is None:
+        return {"available": False, "reason_if_not": _screening_reason(case, result, reason),
+                "paragraphs": [], "flags": [], "tables": [], "plots": []}
+    g = screening.get("groups", {})
+    hot = screening.get("hot_spot", {})
+    key = case.design.key_species
+    num = screening.get("numerics", {})
+    paragraphs = [
+        f"Risk: {screening.get('risk', 'n/a').upper()} (the rule applied is in the verdict below).",
+        f"The groups belong to the reaction that releases the most heat at the feed composition and the "
+        f"coolant temperature ({g.get('reaction', 'n/a')}). Screening runs use rtol {fmt(num.get('rtol'), 2)} "
+        f"and locate the hot spot at {fixed(hot.get('temperature_K'), 2)} K, z = {fmt(hot.get('position_m'), 4)} m "
+        f"({screening.get('solves', 'n/a')} solves in all).",
+        f"Definitions: {g.get('definitions', '')}.",
+    ]
+    groups = {"caption": f"Dimensionless groups ({g.get('reaction', '')})", "columns": ["Group", "Value", "Meaning"],
+              "rows": [["γ", fmt(g.get("gamma"), 4), "Arrhenius number E/(R·Tc)"],
+                       ["ΔT_ad [K]", fixed(g.get("adiabatic_rise_K")), "adiabatic temperature rise of the "
+                                                                        "dominant reaction at the feed"],
+                       ["B", fmt(g.get("B"), 4), "heat-of-reaction parameter γ·ΔT_ad/Tc"],
+                       ["St", fmt(g.get("St"), 4), "Stanton number U·π·D·L/(Σ F_i·cp_i)"],
+                       ["Da", fmt(g.get("Da"), 4), "Damköhler number at feed composition and Tc"],
+                       ["N = St/Da", fmt(g.get("N"), 4), "cooling against reaction"],
+                       ["ψ = B/N", fmt(g.get("psi"), 4), "Semenov number"],
+                       ["N/B", fmt(g.get("N_over_B"), 4), "compare with the critical N/B of the criteria"]]}
+    criteria, notes = _criteria_table(case, screening)
+    margin_rows = []
+    for crit_key, entry in screening.get("critical", {}).items():
+        name = crit_key.removesuffix("_K")
+        label = _PARAMETER_LABELS.get(name, name).format(key=key)
+        temperature = crit_key.endswith("_K")
+        show = (lambda v: fixed(v, 1)) if temperature else (lambda v: fmt(v, 4))
+        unit = " K" if temperature else ""
+        if entry.get("found"):
+            critical = show(entry["value"]) + unit
+            margin = (fixed(entry["margin"], 1, sign=True) + " K") if temperature else fmt(entry["margin"], 3)
+            rel = _pct(entry.get("margin_relative"))
+        else:
+            lo, hi = entry.get("search_range", [None, None])
+            critical = f"not found in {show(lo)}-{show(hi)}{unit}"
+            margin, rel = _DASH, _DASH
+        margin_rows.append([label, show(entry.get("operating_value")) + unit, critical, margin, rel,
+                            fmt(entry.get("s_max"), 3),
+                            {"level": VERDICT_LEVELS.get(entry.get("verdict"), "attention"),
+                             "text": entry.get("verdict", "")}])
+    margins = {"caption": "Critical values and margins (Morbidelli-Varma: maximum of the normalized sensitivity)",
+               "columns": ["Parameter", "Design", "Critical", "Margin", "Relative margin", "max |s|", "Verdict"],
+               "rows": margin_rows}
+    sens_rows = []
+    excess = screening.get("sensitivity_excess", {})
+    for name, s in screening.get("sensitivity", {}).items():
+        label = _PARAMETER_LABELS.get(name, name).format(key=key)
+        x = excess.get(name)
+        temperature = name in ("inlet_temperature", "coolant_temperature")
+        big = _finite(x) and (x > 1.0 if temperature else abs(x) > 1.0)
+        if not _finite(s):
+            reading = "not computed"
+        elif temperature:
+            reading = "s − φ/T* > 1: amplified, sensitive" if big else "s − φ/T* ≤ 1"
+        else:
+            reading = "|s| > 1: sensitive" if big else "|s| ≤ 1"
+        sens_rows.append([label, fmt(s, 3), fmt(x, 3) if temperature else _DASH,
+                          {"level": "attention" if big else "ok", "text": reading}])
+    sensitivity = {"caption": "Normalized sensitivity of the hot spot at the design point, s = (φ/T*)·dT*/dφ; for "
+                              "the inlet and coolant temperatures a hot spot that just follows them (as without "
+                              "reaction) has s = φ/T*, so only the excess counts",
+                   "columns": ["Parameter φ", "s", "s − φ/T*", "Reading"], "rows": sens_rows}
+    flag = _runaway_flag(case, result, screening, None)
+    return {"available": True, "reason_if_not": "", "paragraphs": paragraphs, "flags": [flag],
+            "tables": [groups, criteria, notes, margins, sensitivity],
+            "plots": _sensitivity_plots(case, screening)}
+
+
+# ----------------------------------------------------------------------------- numerics
+def _numerics_block(case, result, screening):
+    s = result.summary()
+    paragraphs = [f"Run status: {result.status}; {result.termination}."]
+    for name, event in result.events.items():
+        where = ", ".join(f"{k.removesuffix('_m').removesuffix('_K').removesuffix('_Pa').replace('_', ' ')} "
+                          f"{fmt(v, 6)} {'m' if k.endswith('_m') else 'K' if k.endswith('_K') else 'Pa'}"
+                          for k, v in event.items())
+        paragraphs.append(f"Event {name.replace('_', ' ')}: {where}.")
+    paragraphs.append(f"Hot spot located by: {result.hot_spot.get('located_by', 'n/a')}.")
+    if result.extra.get("viscosity"):
+        paragraphs.append(f"Gas viscosity: {result.extra['viscosity']}.")
+    closure_rows = []
+    for name, label in (("elements_relative", "Elements (and total mass), relative"),
+                        ("energy_relative", "Energy (H_out - H_in - Q), relative")):
+        value = result.closure.get(name)
+        ok = _finite(value) and abs(float(value)) <= CLOSURE_OK
+        closure_rows.append([label, fmt(value, 3), {"level": "ok" if ok else "attention",
+                                                    "text": f"≤ {fmt(CLOSURE_OK, 1)}" if ok
+                                                    else f"> {fmt(CLOSURE_OK, 1)}"}])
+    z_dev = s.get("max_compressibility_deviation")
+    closure_rows.append(["Largest |Z - 1| along the tube (Peng-Robinson)", fmt(z_dev, 3, "not computed"),
+                         _DASH])
+    closure = {"caption": "Conservation closure and real-gas deviation", "columns": ["Check", "Value", "Verdict"],
+               "rows": closure_rows}
+    st = result.solver_stats
+    labels = (("method", "Method"), ("rtol", "Relative tolerance"),
+              ("atol_scale", "Absolute tolerance / variable scale"), ("output_points", "Output points"),
+              ("steps", "Integration steps"), ("rhs_evaluations", "Right-hand-side evaluations"),
+              ("jacobian_evaluations", "Jacobian evaluations"), ("integrator_calls", "Integrator calls"),
+              ("wall_time_s", "Wall time of the run [s]"))
+    solver = {"caption": "Solver statistics of the design run", "columns": ["Quantity", "Value"],
+              "rows": [[label, st[k] if isinstance(st.get(k), str) else fmt(st.get(k), 4)]
+                       for k, label in labels if k in st]}
+    tables = [closure, solver]
+    warnings = list(result.warnings)
+    if screening is not None:
+        num = screening.get("numerics", {})
+        tables.append({"caption": "Screening numerics", "columns": ["Quantity", "Value"],
+                       "rows": [["Relative tolerance", fmt(num.get("rtol"), 2)],
+                                ["Absolute tolerance / variable scale", fmt(num.get("atol_scale"), 2)],
+                                ["Relative step of the sensitivities", fmt(num.get("relative_step"), 2)],
+                                ["Internal temperature limit [K]", fixed(num.get("internal_temperature_limit_K"))],
+                                ["Points per coarse scan", fmt(num.get("coarse_points"), 4)],
+                                ["Solves", fmt(screening.get("solves"), 6)]]})
+        for name, why in (num.get("undecided") or {}).items():
+            warnings.append(f"screening, {name.replace('_', ' ')}: {why}")
+    return {"available": True, "reason_if_not": "", "paragraphs": paragraphs, "flags": [], "tables": tables,
+            "plots": [], "warnings": [str(w) for w in warnings]}
