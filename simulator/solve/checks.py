@@ -43,10 +43,9 @@ def _enthalpy_cantera(model, F, T, P, K=compiled_kernel):
             h = thermo[name].h(T) / 1000.0
         H += Fi * h
     if case.thermo.equation_of_state == "peng-robinson":
-        ip, crit = model.args[0], model.args[9]
+        crit = model.args[9]
         Ft = float(np.sum(np.clip(F, 0, None)))
         H += Ft * K.pr_departure(T, P, np.clip(F, 0, None) / Ft, crit)[1]
-        del ip
     return H
 
 

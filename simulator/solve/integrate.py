@@ -113,13 +113,10 @@ def _explain_failure(message, case, length):
     return f"{text} (ODEPACK LSODA)"
 
 
-def _first_crossing(values, upward=True):
-    """Index k of the first sign change between k and k+1 (of values as given), or None."""
+def _first_crossing(values):
+    """Index k of the first upward sign change between k and k+1, or None."""
     v = np.asarray(values)
-    if upward:
-        idx = np.nonzero((v[:-1] <= 0) & (v[1:] > 0))[0]
-    else:
-        idx = np.nonzero((v[:-1] >= 0) & (v[1:] < 0))[0]
+    idx = np.nonzero((v[:-1] <= 0) & (v[1:] > 0))[0]
     return int(idx[0]) if len(idx) else None
 
 

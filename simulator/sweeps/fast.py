@@ -409,6 +409,14 @@ _SAMPLES = np.array([0.0, 0.25, 0.5, 0.75, 1.0])
 _BISECTIONS = 48
 
 
+@njit(cache=True, inline="always")
+def _store_counts(res, n_acc, n_rej, nfev):
+    """Record the accepted and rejected steps and the right-hand-side calls of one case."""
+    res[_N_ACC] = n_acc
+    res[_N_REJ] = n_rej
+    res[_N_FEV] = nfev
+
+
 @njit(cache=True, error_model="numpy")
 def _q_row(Kst, i, P, q):
     for j in range(4):
@@ -600,9 +608,7 @@ def _integrate(y0, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, atol, rtol, 
                 if stiff_count >= 15:
                     stiff_seen = 1
                     if stiff_check:
-                        res[_N_ACC] = n_acc
-                        res[_N_REJ] = n_rej
-                        res[_N_FEV] = nfev
+                        _store_counts(res, n_acc, n_rej, nfev)
                         res[_STIFF] = 1.0
                         return _STIFFNESS
             else:
@@ -663,9 +669,7 @@ def _integrate(y0, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, atol, rtol, 
                 res[_T_OUT] = yt[n]
                 res[_P_OUT] = yt[n + 1]
                 res[_Z_OUT] = z_e
-                res[_N_ACC] = n_acc
-                res[_N_REJ] = n_rej
-                res[_N_FEV] = nfev
+                _store_counts(res, n_acc, n_rej, nfev)
                 res[_STIFF] = stiff_seen
                 return outcome
             z = length if last else z + h
@@ -685,14 +689,10 @@ def _integrate(y0, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, atol, rtol, 
             h *= fac
             rejected_last = True
             if h < h_min:
-                res[_N_ACC] = n_acc
-                res[_N_REJ] = n_rej
-                res[_N_FEV] = nfev
+                _store_counts(res, n_acc, n_rej, nfev)
                 return _NONFINITE if not finite else _COLLAPSE
         if n_acc + n_rej >= max_steps:
-            res[_N_ACC] = n_acc
-            res[_N_REJ] = n_rej
-            res[_N_FEV] = nfev
+            _store_counts(res, n_acc, n_rej, nfev)
             return _BUDGET
     if y[n] > T_hot:
         T_hot = y[n]
@@ -703,9 +703,7 @@ def _integrate(y0, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, atol, rtol, 
     res[_T_OUT] = y[n]
     res[_P_OUT] = y[n + 1]
     res[_Z_OUT] = length
-    res[_N_ACC] = n_acc
-    res[_N_REJ] = n_rej
-    res[_N_FEV] = nfev
+    _store_counts(res, n_acc, n_rej, nfev)
     res[_STIFF] = stiff_seen
     return _OK
 
