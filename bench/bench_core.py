@@ -9,7 +9,7 @@ Run from the repository root::
     python bench/bench_core.py --profile       # profile simulate() even if the target is met
 
 The case is ``bench/cases/cooled_packed_bed_bench.toml`` (invented data): a cooled
-packed tube, C2H4 + H2 => C2H6 with N2, constant coolant temperature, Ergun
+packed tube, C2H4 + H2 => C2H6 with N2, uniform medium temperature, Ergun
 pressure drop with a given viscosity.
 
 The baseline below is written independently of ``simulator/``: it reads the raw
@@ -94,7 +94,7 @@ class PlainPFR:
     ----------
     case_path : str or pathlib.Path
         TOML case with power-law, partial-pressure, per-catalyst-mass reactions,
-        constant coolant temperature and Ergun pressure drop with a given viscosity.
+        uniform medium temperature and Ergun pressure drop with a given viscosity.
     """
 
     def __init__(self, case_path):
@@ -108,13 +108,14 @@ class PlainPFR:
             return float(Q(text).to_base_units().magnitude)
 
         feed, tube, bed, heat, dp = raw["feed"], raw["tube"], raw["bed"], raw["heat"], raw["pressure_drop"]
-        if heat["mode"] != "constant-coolant" or dp["model"] != "ergun":
-            raise SystemExit("the baseline script handles constant-coolant + ergun cases only")
+        medium = heat.get("medium", {})
+        if heat["mode"] != "exchange" or medium.get("arrangement", "uniform") != "uniform" or dp["model"] != "ergun":
+            raise SystemExit("the baseline script handles a uniform medium + ergun cases only")
         names = list(feed["mole_fractions"])
         stoich = []
         for r in raw["reactions"]:
-            if "<=>" in r["equation"] or r.get("driving_force") != "partial-pressure" \
-                    or r.get("per") != "catalyst-mass":
+            if "<=>" in r["equation"] or r.get("in_terms_of") != "partial-pressure" \
+                    or r.get("rate_basis") != "catalyst-mass":
                 raise SystemExit("the baseline script handles irreversible partial-pressure rates per kg only")
             lhs, rhs = r["equation"].split("=>")
             nu = {s: -c for s, c in _parse_side(lhs.strip()).items()}
@@ -155,7 +156,7 @@ class PlainPFR:
         self.eps = float(bed["void_fraction"])
         self.d_p = si(bed["particle_diameter"])
         self.U = si(heat["overall_coefficient"])
-        self.Tc = si(heat["coolant_temperature"])
+        self.Tc = si(medium["temperature"])
         self.mu = si(dp["viscosity"])
         x0 = np.array([feed["mole_fractions"].get(s, 0.0) for s in names])
         F0 = x0 / x0.sum() * si(feed["molar_flow"]) / int(tube.get("count", 1))

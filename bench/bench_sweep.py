@@ -8,8 +8,8 @@ Run from the repository root::
     python bench/bench_sweep.py --json out.json
 
 The map: the demo case ``cases/hydrogenation_cooled_packed_bed.toml`` (C2H4 + H2 => C2H6
-with N2, 4 species from gri30.yaml, energy balance, constant coolant temperature, Ergun
-pressure drop), 50 coolant temperatures (400-460 K) x 50 feed C2H4 mole fractions
+with N2, 4 species from gri30.yaml, energy balance, uniform medium temperature, Ergun
+pressure drop), 50 medium temperatures (400-460 K) x 50 feed C2H4 mole fractions
 (0.02-0.10, the other species rescaled), no temperature limit (as the sweep verb runs:
 runaway cases run on to the end of the tube). It spans mild hot spots and runaway peaks
 of up to about 820 K.
@@ -49,7 +49,7 @@ ROOT = HERE.parent
 sys.path.insert(0, str(ROOT))
 
 CASE = ROOT / "cases" / "hydrogenation_cooled_packed_bed.toml"
-PATHS = ["heat.coolant_temperature", "feed.mole_fractions.C2H4"]
+PATHS = ["heat.medium.temperature", "feed.mole_fractions.C2H4"]
 COOLANT = np.linspace(400.0, 460.0, 50)      # [K]
 FRACTION = np.linspace(0.02, 0.10, 50)       # [-]
 TARGET = 20000.0                             # [cases/s] on 2 cores
@@ -69,7 +69,7 @@ class PlainTube:
     ----------
     case : simulator.case.schema.Case
         Loaded case (SI numbers only are read from it; irreversible power laws per kg of
-        catalyst, constant coolant temperature, Ergun with a given viscosity).
+        catalyst, uniform medium temperature, Ergun with a given viscosity).
     nasa : ndarray
         NASA-7 rows of the species (Cantera's layout), [-]
     molar_mass : ndarray
@@ -85,7 +85,7 @@ class PlainTube:
         self.A = np.array([r.pre_exponential for r in case.reactions])
         self.E = np.array([r.activation_energy for r in case.reactions])
         for j, r in enumerate(case.reactions):
-            if r.reversible or r.per != "catalyst-mass" or r.driving_force != "partial-pressure":
+            if r.reversible or r.rate_basis != "catalyst-mass" or r.in_terms_of != "partial-pressure":
                 raise SystemExit("the plain script handles irreversible partial-pressure rates per kg only")
             for s, v in r.stoichiometry:
                 self.nu[names.index(s), j] = v
@@ -103,7 +103,7 @@ class PlainTube:
         self.eps = case.bed.void_fraction
         self.d_p = case.bed.particle_diameter
         self.U = case.heat.overall_coefficient
-        self.Tc = case.heat.coolant_temperature
+        self.Tc = case.heat.medium_temperature
         self.mu = case.pressure_drop.viscosity
         x0 = np.array([dict(case.feed.mole_fractions).get(s, 0.0) for s in names])
         F0 = x0 * case.feed.flow_value / case.tube.count
@@ -161,9 +161,9 @@ t1 = time.perf_counter()
 model = build_model(load_case(sys.argv[1]))
 t2 = time.perf_counter()
 params = np.array([[420.0, 0.05], [440.0, 0.08]])
-fast.batch_solve(model, params, ["heat.coolant_temperature", "feed.mole_fractions.C2H4"])
+fast.batch_solve(model, params, ["heat.medium.temperature", "feed.mole_fractions.C2H4"])
 t3 = time.perf_counter()
-fast.batch_solve(model, params, ["heat.coolant_temperature", "feed.mole_fractions.C2H4"])
+fast.batch_solve(model, params, ["heat.medium.temperature", "feed.mole_fractions.C2H4"])
 t4 = time.perf_counter()
 print(json.dumps({"import_s": t1 - t0, "load_and_build_s": t2 - t1, "first_batch_solve_s": t3 - t2,
                   "second_batch_solve_s": t4 - t3}))
@@ -262,7 +262,7 @@ def main(argv=None):
     N = len(params)
     every = 5 if args.quick else 1
     ref_idx = np.arange(0, N, every)
-    print(f"map: {N} cases = {len(COOLANT)} coolant temperatures {COOLANT[0]:g}-{COOLANT[-1]:g} K x "
+    print(f"map: {N} cases = {len(COOLANT)} medium temperatures {COOLANT[0]:g}-{COOLANT[-1]:g} K x "
           f"{len(FRACTION)} C2H4 fractions {FRACTION[0]:g}-{FRACTION[-1]:g}; {base.n} species, energy, Ergun")
 
     def case_of(values, solver=None):
@@ -298,7 +298,7 @@ def main(argv=None):
         dX = np.array([X[k] - ref[i][2] for k, i in enumerate(idx)])
         w = int(np.argmax(np.abs(dT)))
         return {"max_abs_dT_K": float(np.max(np.abs(dT))), "max_abs_dX": float(np.max(np.abs(dX))),
-                "worst_case": {"coolant_K": float(params[idx[w], 0]), "y_C2H4": float(params[idx[w], 1]),
+                "worst_case": {"medium_K": float(params[idx[w], 0]), "y_C2H4": float(params[idx[w], 1]),
                                "T_star_ref_K": float(ref[idx[w]][1]), "dT_K": float(dT[w])}}
 
     # --- variant 1: plain solve_ivp script --------------------------------------------------------
@@ -390,11 +390,11 @@ def main(argv=None):
           f"stiffness test fired (informational) on {int(out['stiff'].sum())}")
     print(f"statuses equal to the reference on all compared cases: {status_ok}")
     print(f"accuracy of batch_solve (rtol {fast.DEFAULT_RTOL:g}, case atol_scale) against the tight reference: "
-          f"max |dT*| = {acc_fast['max_abs_dT_K']:.4f} K at T_c = {acc_fast['worst_case']['coolant_K']:.2f} K, "
+          f"max |dT*| = {acc_fast['max_abs_dT_K']:.4f} K at T_c = {acc_fast['worst_case']['medium_K']:.2f} K, "
           f"y_C2H4 = {acc_fast['worst_case']['y_C2H4']:.4f} (T* = {acc_fast['worst_case']['T_star_ref_K']:.2f} K); "
           f"max |dX_out| = {acc_fast['max_abs_dX']:.1e}")
     print(f"  simulate() at the case's own settings (rtol 1e-8, 401 points): max |dT*| = "
-          f"{acc_sim['max_abs_dT_K']:.4f} K at T_c = {acc_sim['worst_case']['coolant_K']:.2f} K, y_C2H4 = "
+          f"{acc_sim['max_abs_dT_K']:.4f} K at T_c = {acc_sim['worst_case']['medium_K']:.2f} K, y_C2H4 = "
           f"{acc_sim['worst_case']['y_C2H4']:.4f}")
     per_case = min(times[1]) / N
     compiled = outs[1]["timing"]["compiled"]

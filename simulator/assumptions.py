@@ -1,8 +1,8 @@
-"""How wrong is the textbook design for this case? Assumption check and attribution.
+"""How wrong is the ideal design for this case? Assumption check and attribution.
 
-The textbook sizes a tube isothermal at the feed temperature, isobaric at the
+The ideal design sizes a tube isothermal at the feed temperature, isobaric at the
 feed pressure and with an ideal gas (same kinetics, same mole change). This
-module solves that textbook model and the full case, compares the quantity that
+module solves that ideal model and the full case, compares the quantity that
 reaches the target (volume for an empty tube, catalyst mass for a bed), and
 attributes the error to each assumption by switching off one effect at a time in
 the full model.
@@ -18,7 +18,7 @@ Thresholds (overridable in the case's ``[assumptions]`` table):
 * ``ideal_gas``: max |Z - 1| below 5 % along the tube — common practice, no source.
 * ``constant_moles``: |epsilon| = |y_key,0 * delta| below 5 %, with delta the change
   in total moles per mole of key species of the reaction that consumes it most —
-  common practice, no source (the expansion factor itself is the textbook one,
+  common practice, no source (the expansion factor itself is the classical one,
   Levenspiel 1999, ch. 3).
 """
 import dataclasses
@@ -29,16 +29,18 @@ import numpy as np
 from simulator.model.build import build_model
 from simulator.solve.integrate import simulate
 from simulator.units import R
+from simulator.verdicts import assumption_level
 
 NAN = float("nan")
 
 
-def textbook_case(case):
+def ideal_case(case):
     """The case made isothermal at the feed temperature, isobaric and ideal gas (no temperature limit)."""
     return dataclasses.replace(
         case,
-        heat=dataclasses.replace(case.heat, mode="isothermal", overall_coefficient=0.0, coolant_temperature=NAN,
-                                 coolant_mass_flow=NAN, coolant_cp=NAN),
+        heat=dataclasses.replace(case.heat, mode="isothermal", overall_coefficient=0.0, arrangement="",
+                                 medium_temperature=NAN,
+                                 medium_mass_flow=NAN, medium_cp=NAN),
         pressure_drop=dataclasses.replace(case.pressure_drop, model="none"),
         thermo=dataclasses.replace(case.thermo, equation_of_state="ideal-gas"),
         design=dataclasses.replace(case.design, temperature_limit=NAN),
@@ -85,7 +87,7 @@ def mole_change(case):
 
 
 def check_assumptions(case):
-    """Solve the textbook and full models, measure each assumption and attribute the design change.
+    """Solve the ideal and full models, measure each assumption and attribute the design change.
 
     Parameters
     ----------
@@ -97,9 +99,9 @@ def check_assumptions(case):
         The ``assumptions.json`` content (SI units).
     """
     full_result = simulate(case)
-    text_result = simulate(textbook_case(case))
-    full, textbook = _numbers(full_result), _numbers(text_result)
-    change, basis = _change(case, textbook, full, "textbook", "full")
+    ideal_result = simulate(ideal_case(case))
+    full, ideal = _numbers(full_result), _numbers(ideal_result)
+    change, basis = _change(case, ideal, full, "ideal", "full")
     T0, P0 = case.feed.temperature, case.feed.pressure
     E_max = max(r.activation_energy for r in case.reactions)
     th = case.assumptions
@@ -108,8 +110,8 @@ def check_assumptions(case):
     # isothermal
     value = float(np.max(np.abs(full_result.T - T0)))
     limit = th.isothermal if not math.isnan(th.isothermal) else (0.1 * R * T0 ** 2 / E_max if E_max > 0 else math.inf)
-    variant = _numbers(simulate(dataclasses.replace(case, heat=textbook_case(case).heat,
-                                                    design=textbook_case(case).design)))
+    variant = _numbers(simulate(dataclasses.replace(case, heat=ideal_case(case).heat,
+                                                    design=ideal_case(case).design)))
     entries["isothermal"] = _entry(value, limit, "K", variant, full, case, "isothermal variant", "full",
                                    "max |T - T_feed| along the tube",
                                    "0.1 R T_feed^2 / E_max: about 10 % change of the rate constant (common practice)"
@@ -139,7 +141,7 @@ def check_assumptions(case):
         "key_species": case.design.key_species,
         "target_conversion": None if math.isnan(case.design.target_conversion) else case.design.target_conversion,
         "design_quantity": key,
-        "textbook": textbook,
+        "ideal": ideal,
         "full": full,
         "design_change_percent": change,
         "design_change_basis": basis,
@@ -155,8 +157,9 @@ def _finite(value):
 
 def _entry(value, threshold, unit, variant, full, case, label_variant, label_full, measure, threshold_source):
     change, basis = _change(case, variant, full, label_variant, label_full)
+    verdict = "holds" if value <= threshold else "fails"
     return {"value": value, "threshold": threshold, "unit": unit,
-            "verdict": "holds" if value <= threshold else "fails",
+            "verdict": verdict, "level": assumption_level(verdict, change),
             "design_change_percent": change, "design_change_basis": basis,
             "measure": measure, "threshold_source": threshold_source}
 
@@ -166,7 +169,8 @@ def _ideal_gas_entry(case, full_result, full):
     Z = full_result.Z
     source = "5 % (common practice)" if th == 0.05 else "case [assumptions] table"
     if not np.any(np.isfinite(Z)):
-        return {"value": None, "threshold": th, "unit": "-", "verdict": "unknown", "design_change_percent": None,
+        return {"value": None, "threshold": th, "unit": "-", "verdict": "unknown",
+                "level": assumption_level("unknown", None), "design_change_percent": None,
                 "design_change_basis": "no critical constants for every species: Z cannot be computed; give "
                                        "[thermo.critical.NAME]",
                 "measure": "max |Z - 1| along the tube (Peng-Robinson)", "threshold_source": source}
@@ -180,8 +184,9 @@ def _ideal_gas_entry(case, full_result, full):
             case, thermo=dataclasses.replace(case.thermo, equation_of_state="peng-robinson"))))
         change, basis = _change(case, full, real, "full (ideal-gas)", "Peng-Robinson variant")
         basis += " (the case is ideal gas: compared with the same case on Peng-Robinson)"
-    return {"value": value, "threshold": th, "unit": "-", "verdict": "holds" if value <= th else "fails",
-            "design_change_percent": change, "design_change_basis": basis,
+    verdict = "holds" if value <= th else "fails"
+    return {"value": value, "threshold": th, "unit": "-", "verdict": verdict,
+            "level": assumption_level(verdict, change), "design_change_percent": change, "design_change_basis": basis,
             "measure": "max |Z - 1| along the tube (Peng-Robinson)", "threshold_source": source}
 
 
@@ -193,20 +198,20 @@ def format_table(report):
     def fmt(value, spec=".4g"):
         return "n/a" if value is None else format(value, spec)
 
-    t, f = report["textbook"], report["full"]
+    t, f = report["ideal"], report["full"]
     lines = [report["title"],
-             f"  {'':22s}{'textbook':>14s}{'full':>14s}",
+             f"  {'':22s}{'ideal':>14s}{'full':>14s}",
              f"  {'length to target [m]':22s}{fmt(t['length_m']):>14s}{fmt(f['length_m']):>14s}",
              f"  {key.replace('_', ' ')[:-3] + ' [' + unit + ']':22s}{fmt(t[key]):>14s}{fmt(f[key]):>14s}",
              f"  {'outlet conversion':22s}{fmt(t['outlet_conversion']):>14s}{fmt(f['outlet_conversion']):>14s}",
-             f"  design change (textbook vs full): "
+             f"  design change (ideal vs full): "
              + (f"{report['design_change_percent']:+.1f} %" if report["design_change_percent"] is not None
                 else f"n/a ({report['design_change_basis']})"),
-             f"  {'assumption':16s}{'value':>12s}{'threshold':>12s}{'unit':>5s}{'verdict':>9s}{'design change':>16s}"]
+             f"  {'assumption':16s}{'value':>12s}{'threshold':>12s}{'unit':>5s}{'verdict':>9s}{'level':>13s}{'design change':>16s}"]
     for name, e in report["assumptions"].items():
         change = "n/a" if e["design_change_percent"] is None else f"{e['design_change_percent']:+.2f} %"
         lines.append(f"  {name:16s}{fmt(e['value']):>12s}{fmt(e['threshold']):>12s}{e['unit']:>5s}"
-                     f"{e['verdict']:>9s}{change:>16s}")
+                     f"{e['verdict']:>9s}{e['level']:>13s}{change:>16s}")
     rise = report["adiabatic_temperature_rise_K"]
     lines.append(f"  adiabatic temperature rise: {fmt(rise, '+.1f')} K")
     return "\n".join(lines)

@@ -14,7 +14,7 @@ EPILOG = """examples:
   tubesim assumptions cases/hydrogenation_cooled_packed_bed.toml --out out/h
   tubesim screen cases/froment1967_oxylene_packed_tube.toml --out out/ox
   tubesim report cases/hydrogenation_cooled_packed_bed.toml --out out/h
-  tubesim sweep CASE --vary "heat.coolant_temperature=600 K:660 K:31" --out DIR
+  tubesim sweep CASE --vary "heat.medium.temperature=600 K..660 K in 31" --out DIR
   python -m simulator run CASE --out DIR      (same as tubesim)
 
 Results are screening-level engineering estimates; see the report's cautions.
@@ -46,7 +46,7 @@ def build_parser():
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
 
-    p = sub.add_parser("assumptions", help="textbook (isothermal, isobaric, ideal gas) vs full model; "
+    p = sub.add_parser("assumptions", help="ideal design (isothermal, isobaric, ideal gas) vs full model; "
                        "write assumptions.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
@@ -67,8 +67,8 @@ def build_parser():
 
     p = sub.add_parser("sweep", help="full grid over case parameters; results.sqlite/.csv and plots")
     p.add_argument("case", help="case file (TOML)")
-    p.add_argument("--vary", action="append", required=True, metavar='"PATH=START:STOP:N"',
-                   help='e.g. "heat.coolant_temperature=600 K:660 K:31" (repeat for a grid)')
+    p.add_argument("--vary", action="append", required=True, metavar='"PATH=START..STOP in N"',
+                   help='e.g. "heat.medium.temperature=600 K..660 K in 31" (repeat for a grid)')
     p.add_argument("--out", required=True, help="output folder (a rerun with the same folder resumes)")
     _execution_options(p)
 

@@ -25,7 +25,7 @@ class Result:
     ----------
     z : ndarray, axial position [m]
     F : ndarray (N, n), molar flows of the whole reactor [mol/s]
-    T, P, Tc : ndarray, gas temperature [K], pressure [Pa], coolant temperature [K]
+    T, P, Tc : ndarray, gas temperature [K], pressure [Pa], medium temperature [K]
     Q : ndarray, heat added through the walls of all tubes up to z [W] (negative = removed)
     Z : ndarray, compressibility factor (NaN where critical data are missing) [-]
     status : "completed" | "stopped" | "failed"
@@ -85,8 +85,7 @@ class Result:
             "conversion": _num(self.conversion[-1]),
             "temperature_K": _num(self.T[-1]),
             "pressure_Pa": _num(self.P[-1]),
-            "coolant_temperature_K": _num(self.Tc[-1]) if self.case.heat.mode in (
-                "constant-coolant", "co-current") else None,
+            "medium_temperature_K": _num(self.Tc[-1]) if self.case.heat.exchange else None,
             "molar_flows_mol_per_s": {s: _num(v) for s, v in zip(self.species, self.F[-1])},
             "mole_fractions": {s: _num(v) for s, v in zip(self.species, x_out)},
             "heat_duty_W": _num(self.Q[-1]),
@@ -100,7 +99,7 @@ class Result:
                 "title": self.case.title, "status": self.status, "termination": self.termination,
                 "key_species": self.key_species, "outlet": outlet,
                 "hot_spot": {"temperature_K": None, "position_m": None, "rise_above_feed_K": None,
-                             "rise_above_coolant_K": None, "located_by": None},
+                             "rise_above_medium_K": None, "located_by": None},
                 "design": {"target_conversion": self.design.get("target_conversion"), "reached": False,
                            "length_m": None, "volume_m3": None, "catalyst_mass_kg": None},
                 "adiabatic_temperature_rise_K": _num(self.adiabatic_temperature_rise),
@@ -151,11 +150,11 @@ class Result:
 
     def profile_table(self):
         """(header, rows) for ``profile.csv``: one row per axial point."""
-        header = ["position_m", "temperature_K", "pressure_Pa", "coolant_temperature_K", "compressibility_Z",
+        header = ["position_m", "temperature_K", "pressure_Pa", "medium_temperature_K", "compressibility_Z",
                   f"conversion_{self.key_species}", "heat_added_W"]
         header += [f"molar_flow_{s}_mol_per_s" for s in self.species]
         header += [f"mole_fraction_{s}" for s in self.species]
-        cooled = self.case.heat.mode in ("constant-coolant", "co-current")
+        cooled = self.case.heat.exchange
         X = self.conversion
         x = self.mole_fractions
         rows = []

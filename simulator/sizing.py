@@ -58,7 +58,7 @@ def _evaluate(case, kind):
         "max_pressure_drop": math.isnan(limits.max_pressure_drop) or dp <= limits.max_pressure_drop,
         "temperature_limit": (math.isnan(limits.temperature_limit) or
                               (T_max < limits.temperature_limit and (stop_T is None or stop_T > end))),
-        "tube_passes_feed": stop_P is None or stop_P > end,
+        "tube_carries_feed": stop_P is None or stop_P > end,
     }
     if result.status == "failed":
         checks["solver"] = False
@@ -70,7 +70,7 @@ def _evaluate(case, kind):
     }
 
 
-PRIORITY = ("temperature_limit", "tube_passes_feed", "max_pressure_drop", "target_conversion", "solver")
+PRIORITY = ("temperature_limit", "tube_carries_feed", "max_pressure_drop", "target_conversion", "solver")
 
 
 def binding(cand):

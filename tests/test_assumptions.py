@@ -1,12 +1,12 @@
-"""The assumption check: textbook branch, attribution of the design change, verdicts, CLI.
+"""The assumption check: ideal branch, attribution of the design change, verdicts, CLI.
 
 Kinds of check (STYLE.md section 8):
 
-* published: the textbook branch of a case that is neither isothermal, isobaric
+* published: the ideal branch of a case that is neither isothermal, isobaric
   nor ideal gas equals the closed-form isothermal, isobaric PFR volume with
   expansion (Levenspiel 1999, ch. 5), using the closed form as coded and
   checked against the tabulated values in ``test_validation_closed_forms.py``.
-* invariant: when exactly one assumption fails, the textbook-versus-full design
+* invariant: when exactly one assumption fails, the ideal-versus-full design
   change equals that assumption's own design change and the others are zero;
   verdicts follow value <= threshold; thresholds from the case are used.
 
@@ -57,7 +57,7 @@ equation = "{equation}"
 pre_exponential = "{k}"
 activation_energy = "{E}"
 orders = {{ A = 1 }}
-per = "catalyst-mass"
+rate_basis = "catalyst-mass"
 
 [feed]
 temperature = "{T0}"
@@ -88,24 +88,24 @@ target_conversion = {target!r}
 
 
 # ---------------------------------------------------------------------------------------------
-# Textbook branch of a non-textbook case = Levenspiel's closed form
+# Ideal branch of a non-ideal case = Levenspiel's closed form
 # ---------------------------------------------------------------------------------------------
 LEV = dict(T0=600.0, P0=8.0e5, F0=0.6, y_A=0.5, A=5.0e4, E=80e3, rho_b=1100.0, X=0.8, count=3)
 
 
 @pytest.mark.published("levenspiel1999", "ch. 5, PFR performance equation with expansion, first order "
                                          "(eq. 5.21 from memory)")
-def test_textbook_branch_equals_levenspiel_volume_with_expansion(write_case):
+def test_ideal_branch_equals_levenspiel_volume_with_expansion(write_case):
     # Full case: cooled, Ergun pressure drop (about half the feed pressure), Peng-Robinson, A => 2 B with
-    # 50 % inert (eps = +0.5); its catalyst mass differs from the textbook one by about 20 %.
-    # Its textbook branch is isothermal at the feed temperature, isobaric and ideal gas, so it must be
+    # 50 % inert (eps = +0.5); its catalyst mass differs from the ideal one by about 20 %.
+    # Its ideal branch is isothermal at the feed temperature, isobaric and ideal gas, so it must be
     # the closed form with v0 = F_T0 R T0 / P0 and k = k' rho_b exp(-E / (R T0)) per unit volume.
     p = LEV
     case = load_case(write_case(_bed_case(
         equation="A => 2 B", molar_masses=(56.0, 28.0), hf_B=-5.0, k=f"{p['A']!r} m^3/(kg*s)",
         E=f"{p['E'] / 1000!r} kJ/mol", y_A=p["y_A"], T0=f"{p['T0']!r} K", P0=f"{p['P0']!r} Pa",
         flow=f"{p['F0']!r} mol/s", length="1 m", count=p["count"], rho_b=p["rho_b"], eos="peng-robinson",
-        heat='mode = "constant-coolant"\noverall_coefficient = "100 W/(m^2*K)"\ncoolant_temperature = "600 K"',
+        heat='mode = "exchange"\noverall_coefficient = "100 W/(m^2*K)"\n[heat.medium]\ntemperature = "600 K"',
         target=p["X"])))
     eps, delta = mole_change(case)
     assert (eps, delta) == (pytest.approx(0.5), pytest.approx(1.0))     # eps = y_A0 * delta
@@ -113,13 +113,13 @@ def test_textbook_branch_equals_levenspiel_volume_with_expansion(write_case):
     k_volume = p["A"] * p["rho_b"] * math.exp(-p["E"] / (R * p["T0"]))  # [1/s]
     v0 = p["F0"] * R * p["T0"] / p["P0"]                               # [m^3/s], whole reactor
     V = levenspiel_first_order_volume(v0, k_volume, eps, p["X"])
-    textbook = report["textbook"]
+    ideal = report["ideal"]
     # exact closed form; solver rtol 1e-8 and a located target event -> well inside 1e-5
-    assert textbook["volume_m3"] == pytest.approx(V, rel=1e-5)
-    assert textbook["catalyst_mass_kg"] == pytest.approx(V * p["rho_b"], rel=1e-5)
+    assert ideal["volume_m3"] == pytest.approx(V, rel=1e-5)
+    assert ideal["catalyst_mass_kg"] == pytest.approx(V * p["rho_b"], rel=1e-5)
     area = math.pi * 0.030 ** 2 / 4
-    assert textbook["length_m"] == pytest.approx(V / (p["count"] * area), rel=1e-5)
-    assert textbook["outlet_conversion"] >= p["X"]
+    assert ideal["length_m"] == pytest.approx(V / (p["count"] * area), rel=1e-5)
+    assert ideal["outlet_conversion"] >= p["X"]
     # and the full model really is different, so the test exercises the switch-off of all three effects
     assert report["full"]["catalyst_mass_kg"] is not None
     assert abs(report["design_change_percent"]) > 1.0
@@ -153,7 +153,7 @@ def test_attribution_when_only_isobaric_fails(only_isobaric_fails):
     assert a["isobaric"]["verdict"] == "fails"
     assert [a[n]["verdict"] for n in ("isothermal", "ideal_gas", "constant_moles")] == ["holds"] * 3
     assert report["design_change_percent"] is not None and abs(report["design_change_percent"]) > 5.0
-    # The textbook differs from the full model only by the pressure drop, so the whole design change is
+    # The ideal design differs from the full model only by the pressure drop, so the whole design change is
     # the isobaric one.
     assert report["design_change_percent"] == pytest.approx(a["isobaric"]["design_change_percent"], rel=1e-6)
     assert abs(a["isothermal"]["design_change_percent"]) < 1e-6
@@ -187,7 +187,7 @@ def test_attribution_when_only_isothermal_fails(only_isothermal_fails):
 def test_report_keys_and_verdicts(only_isobaric_fails, only_isothermal_fails):
     for case, report in (only_isobaric_fails, only_isothermal_fails):
         assert report["design_quantity"] == "catalyst_mass_kg"        # a packed bed is sized by mass
-        for branch in ("textbook", "full"):
+        for branch in ("ideal", "full"):
             assert set(NUMBERS) <= set(report[branch])
         assert set(report["assumptions"]) == set(NAMES)
         for name in NAMES:
@@ -221,9 +221,9 @@ def test_thresholds_from_the_case_are_used(write_case):
 
 
 def test_design_change_is_null_with_a_reason_when_the_full_model_misses_the_target(write_case):
-    # Tube long enough for the textbook (2.09 m) but not for the full model with its pressure drop (2.42 m).
+    # Tube long enough for the ideal design (2.09 m) but not for the full model with its pressure drop (2.42 m).
     report = check_assumptions(load_case(write_case(_bed_case(length="2.25 m"))))
-    assert report["textbook"]["catalyst_mass_kg"] is not None
+    assert report["ideal"]["catalyst_mass_kg"] is not None
     assert report["full"]["catalyst_mass_kg"] is None
     assert report["full"]["outlet_conversion"] < 0.9
     assert report["design_change_percent"] is None
@@ -247,7 +247,7 @@ def test_cli_writes_assumptions_json(write_case, tmp_path):
     written = json.loads((out / "assumptions.json").read_text())
     direct = check_assumptions(load_case(path))
     assert set(written["assumptions"]) == set(NAMES)
-    for branch in ("textbook", "full"):
+    for branch in ("ideal", "full"):
         for key in NUMBERS:
             assert written[branch][key] == pytest.approx(direct[branch][key], rel=1e-12)
     assert written["design_change_percent"] == pytest.approx(direct["design_change_percent"], rel=1e-12)

@@ -48,18 +48,18 @@ def _case(write_case, name="c.toml", reaction="", T=600.0, P=5.0, flow='molar_fl
 
 
 LHHW = """equation = "C2H4 + H2 => C2H6"
-rate_law = "lhhw"
+form = "hougen-watson"
 pre_exponential = "5 mol/(kg*s*bar^2)"
 activation_energy = "40 kJ/mol"
 orders = { C2H4 = 1, H2 = 1 }
-driving_force = "partial-pressure"
-per = "catalyst-mass"
-denominator_exponent = 2
-[[reactions.adsorption]]
+in_terms_of = "partial-pressure"
+rate_basis = "catalyst-mass"
+inhibition_power = 2
+[[reactions.inhibition]]
 species = { C2H4 = 1 }
 pre_exponential = "0.02 1/bar"
 heat_of_adsorption = "-30 kJ/mol"
-[[reactions.adsorption]]
+[[reactions.inhibition]]
 species = { H2 = 0.5 }
 pre_exponential = "0.1 1/bar^0.5"
 heat_of_adsorption = "-10 kJ/mol"
@@ -113,21 +113,21 @@ def test_adiabatic_is_the_limit_of_zero_wall_coefficient(write_case):
     adiabatic = simulate(_case(write_case, "a.toml", reaction=reaction, x=x, key="C2H4", T=500.0,
                                heat='mode = "adiabatic"'))
     cooled = simulate(_case(write_case, "b.toml", reaction=reaction, x=x, key="C2H4", T=500.0,
-                            heat='mode = "constant-coolant"\noverall_coefficient = "0 W/(m^2*K)"\n'
-                                 'coolant_temperature = "300 K"'))
+                            heat='mode = "exchange"\noverall_coefficient = "0 W/(m^2*K)"\n'
+                                 '[heat.medium]\ntemperature = "300 K"'))
     assert np.allclose(adiabatic.T, cooled.T, rtol=1e-12, atol=0)
     assert adiabatic.T[-1] > 550.0
 
 
-def test_co_current_coolant_takes_up_exactly_the_heat_the_gas_loses(write_case):
+def test_co_current_medium_takes_up_exactly_the_heat_the_gas_loses(write_case):
     reaction = 'equation = "C2H4 + H2 => C2H6"\npre_exponential = "2e3 m^3/(mol*s)"\nactivation_energy = "50 kJ/mol"'
-    heat = ('mode = "co-current"\noverall_coefficient = "150 W/(m^2*K)"\ncoolant_temperature = "480 K"\n'
-            'coolant_mass_flow = "2 kg/s"\ncoolant_cp = "2.5 kJ/(kg*K)"')
+    heat = ('mode = "exchange"\noverall_coefficient = "150 W/(m^2*K)"\n[heat.medium]\narrangement = "co-current"\n'
+            'temperature = "480 K"\nmass_flow = "2 kg/s"\ncp = "2.5 kJ/(kg*K)"')
     result = simulate(_case(write_case, reaction=reaction, x="{ C2H4 = 0.05, H2 = 0.1, N2 = 0.85 }",
                             key="C2H4", T=500.0, heat=heat))
-    gained_by_coolant = 2.0 * 2500.0 * (result.Tc[-1] - result.Tc[0])      # [W], whole bundle
+    gained_by_medium = 2.0 * 2500.0 * (result.Tc[-1] - result.Tc[0])      # [W], whole bundle
     assert result.Q[-1] < 0                                                 # gas is cooled
-    assert -result.Q[-1] == pytest.approx(gained_by_coolant, rel=1e-8)
+    assert -result.Q[-1] == pytest.approx(gained_by_medium, rel=1e-8)
     assert result.Tc[-1] > 480.0 and result.closure["energy_relative"] < 1e-7
 
 

@@ -14,8 +14,8 @@ species_file = "gri30.yaml"
 equation = "C2H4 + H2 => C2H6"
 pre_exponential = "1e2 mol/(kg*s*bar^2)"
 activation_energy = "50 kJ/mol"
-driving_force = "partial-pressure"
-per = "catalyst-mass"
+in_terms_of = "partial-pressure"
+rate_basis = "catalyst-mass"
 [feed]
 temperature = "250 degC"
 pressure = "5 bar"
@@ -30,9 +30,12 @@ particle_diameter = "3 mm"
 void_fraction = 0.40
 bulk_density = "1100 kg/m^3"
 [heat]
-mode = "constant-coolant"
+mode = "exchange"
 overall_coefficient = "180 W/(m^2*K)"
-coolant_temperature = "520 K"
+
+[heat.medium]
+arrangement = "uniform"
+temperature = "520 K"
 [pressure_drop]
 model = "ergun"
 viscosity = "2.2e-5 Pa*s"
@@ -52,7 +55,7 @@ def test_contract_example_is_accepted_with_its_meaning():
     r = case.reactions[0]
     assert dict(r.stoichiometry) == {"A": -1.0, "B": 2.0} and not r.reversible
     assert r.pre_exponential == 4.0e12 and r.activation_energy == 170e3
-    assert r.driving_force == "concentration" and r.per == "volume"
+    assert r.in_terms_of == "concentration" and r.rate_basis == "reactor-volume"
     custom = {c.name: c for c in case.thermo.custom}
     assert custom["A"].molar_mass == pytest.approx(0.086) and custom["A"].cp == 150.0
     assert custom["B"].enthalpy_of_formation == -10e3
@@ -64,7 +67,7 @@ def test_packed_cooled_form_is_accepted(write_case):
     case = load_case(write_case(PACKED))
     assert case.feed.temperature == pytest.approx(523.15)
     assert case.bed.bulk_density == 1100.0 and case.bed.void_fraction == 0.4
-    assert case.heat.overall_coefficient == 180.0 and case.heat.coolant_temperature == 520.0
+    assert case.heat.overall_coefficient == 180.0 and case.heat.medium_temperature == 520.0
     assert case.pressure_drop.viscosity == pytest.approx(2.2e-5)
     assert case.design.temperature_limit == 800.0
     # default orders are the reactant coefficients; 1e2 mol/(kg s bar^2) in SI
@@ -83,7 +86,7 @@ def _errors(write_case, text):
     ('length = "3 m"', 'length = "-3 m"', r"tube\.length = '-3 m': must be > 0"),
     ('pressure = "5 bar"', 'pressure = "4 barg"', r"feed\.pressure .*gauge pressure is not accepted"),
     ('temperature = "250 degC"', 'temperature = "250 bar"', r"feed\.temperature .*expected temperature"),
-    ('mode = "constant-coolant"', 'mode = "cooled"', r"heat\.mode = 'cooled': unknown; choose one of"),
+    ('mode = "exchange"', 'mode = "cooled"', r"heat\.mode = 'cooled': unknown; choose one of"),
     ("N2 = 0.7", "N2 = 0.6", r"feed\.mole_fractions: sum to 0\.9"),
     ("N2 = 0.7", "N3 = 0.7", r"unknown species 'N3'.*did you mean .*'N2'"),
     ('"C2H4 + H2 => C2H6"', '"C2H4 + 2 H2 => C2H6"', r"elements do not balance \(H -2\)"),
@@ -102,7 +105,7 @@ def test_bad_field_is_named_with_value_and_accepted_values(write_case, old, new,
 
 def test_every_problem_is_reported_at_once(write_case):
     text = PACKED.replace('length = "3 m"', "length = 3").replace("N2 = 0.7", "N3 = 0.7").replace(
-        'mode = "constant-coolant"', 'mode = "cooled"')
+        'mode = "exchange"', 'mode = "cooled"')
     problems = _errors(write_case, text)
     assert len(problems) >= 3
     assert all(p.startswith(str(__import__("pathlib").Path(p.split(":")[0]))) for p in problems)

@@ -28,7 +28,7 @@ def test_run_writes_summary_and_profile_equal_to_the_api(cases_dir, tmp_path, ca
     with open(tmp_path / "profile.csv") as handle:
         rows = list(csv.DictReader(handle))
     assert len(rows) > 100
-    assert {"position_m", "temperature_K", "pressure_Pa", "coolant_temperature_K", "conversion_A",
+    assert {"position_m", "temperature_K", "pressure_Pa", "medium_temperature_K", "conversion_A",
             "molar_flow_A_mol_per_s", "mole_fraction_B"} <= set(rows[0])
     out = capsys.readouterr().out
     assert "status" in out and "completed" in out

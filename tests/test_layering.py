@@ -17,7 +17,7 @@ PACKAGE_NAME = "simulator"
 
 #: Low -> high. A module may import from its own layer and from the layers below.
 LAYERS = [
-    ("errors", "units", "references", "fileio"),
+    ("errors", "units", "references", "fileio", "verdicts"),
     ("case", "thermo", "kinetics"),
     ("model", "results"),
     ("solve", "output"),

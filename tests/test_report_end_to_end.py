@@ -148,7 +148,7 @@ def test_design_numbers_and_verdicts_in_words(reports, name):
     for required in ("Hot spot", "Runaway risk", "Isothermal", "Isobaric", "Ideal gas", "Constant moles"):
         assert required in labels, required
     for word, label, text in flags:
-        assert word in ("OK", "ATTENTION", "DANGER"), (label, word)
+        assert word in ("acceptable", "review", "unacceptable"), (label, word)
         assert text.endswith("."), (label, text)            # one verdict sentence
 
 
@@ -209,24 +209,37 @@ def test_inputs_show_every_case_value_as_written_and_in_si(reports, name):
 
 
 @pytest.mark.parametrize("name", DEMOS)
+def test_assumption_levels_in_the_report_are_the_json_levels(reports, name):
+    # one rule: the report shows the level assumptions.json carries (simulator.verdicts)
+    from simulator.assumptions import check_assumptions
+
+    labels = {"isothermal": "Isothermal", "isobaric": "Isobaric", "ideal_gas": "Ideal gas",
+              "constant_moles": "Constant moles"}
+    flags = {label: word for word, label, _ in _flags(_section(reports[name][0], "summary"))}
+    report = check_assumptions(load_case(ROOT / "cases" / name))
+    for key, entry in report["assumptions"].items():
+        assert flags[labels[key]] == entry["level"], key
+
+
+@pytest.mark.parametrize("name", DEMOS)
 def test_screening_section_filled_or_says_why(reports, name):
     case = load_case(ROOT / "cases" / name)
     section = _section(reports[name][0], "screening")
     summary_flags = {label: (word, text) for word, label, text in _flags(_section(reports[name][0], "summary"))}
     if "Not evaluated:" in section:
         reason = _visible_text(section).split("Not evaluated:")[1]
-        assert ("cooled tube" in reason and case.heat.mode not in ("constant-coolant", "co-current")) or \
+        assert ("cooled through its wall" in reason and not case.heat.exchange) or \
             "no exothermic path" in reason
         assert summary_flags["Runaway risk"][1].startswith(("Not applicable", "Not screened"))
     else:
-        assert case.heat.mode in ("constant-coolant", "co-current")
+        assert case.heat.exchange
         text = _visible_text(section)
         for caption in ("Dimensionless groups", "Runaway criteria at the operating point",
                         "Critical values and margins", "Normalized sensitivity"):
             assert caption in text
-        assert "Hot spot against coolant temperature" in text and "Hot spot against feed fraction" in text
+        assert "Hot spot against medium temperature" in text and "Hot spot against feed fraction" in text
         assert section.count("data:image/svg+xml;base64,") == 2
-        assert summary_flags["Runaway risk"][0] in ("OK", "ATTENTION", "DANGER")
+        assert summary_flags["Runaway risk"][0] in ("acceptable", "review", "unacceptable")
 
 
 @pytest.mark.parametrize("name", DEMOS)
@@ -343,22 +356,23 @@ def test_hostile_case_text_is_escaped_and_nothing_is_fetched(hostile):
 
 
 # ----------------------------------------------------------------------------- a stopped run
-def test_run_stopped_at_the_temperature_limit_is_reported_as_danger(tmp_path):
+def test_run_stopped_at_the_temperature_limit_is_reported_as_unacceptable(tmp_path):
     # The cooled demo bed made adiabatic with a low limit: the run stops at the limit (a design
     # event, not an error) and the report must say so in its verdicts, in words.
     raw = (ROOT / "cases" / "hydrogenation_cooled_packed_bed.toml").read_text(encoding="utf-8")
-    raw = re.sub(r'^(overall_coefficient|coolant_temperature) = .*$', "", raw, flags=re.M)
-    raw = raw.replace('mode = "constant-coolant"', 'mode = "adiabatic"')
+    raw = re.sub(r'^overall_coefficient = .*$', "", raw, flags=re.M)
+    raw = re.sub(r'^\[heat\.medium\]\n(?:[^\[\n].*\n|\n)*', "", raw, flags=re.M)
+    raw = raw.replace('mode = "exchange"', 'mode = "adiabatic"')
     raw = raw.replace('temperature_limit = "650 K"', 'temperature_limit = "500 K"')
     case = tmp_path / "stopped.toml"
     case.write_text(raw, encoding="utf-8")
     written = write_design_report(case, tmp_path / "out", pdf=False)
     document = written["html"].read_text(encoding="utf-8")
     flags = {label: (word, text) for word, label, text in _flags(_section(document, "summary"))}
-    assert flags["Run"][0] == "DANGER" and "temperature limit 500 K" in flags["Run"][1]
-    assert flags["Hot spot"][0] == "DANGER" and "true maximum is higher" in flags["Hot spot"][1]
-    assert flags["Runaway risk"][0] == "ATTENTION" and "Not screened" in flags["Runaway risk"][1]
-    assert flags["Target conversion"][0] == "ATTENTION"
+    assert flags["Run"][0] == "unacceptable" and "temperature limit 500 K" in flags["Run"][1]
+    assert flags["Hot spot"][0] == "unacceptable" and "true maximum is higher" in flags["Hot spot"][1]
+    assert flags["Runaway risk"][0] == "review" and "Not screened" in flags["Runaway risk"][1]
+    assert flags["Target conversion"][0] == "review"
     assert "Hot spot: above the feed" in _design_numbers(document)
     assert not re.search(r"\bnan\b", _visible_text(document), flags=re.I)
 
@@ -386,8 +400,8 @@ def test_sweep_figures_of_the_same_case_enter_the_report(tmp_path):
 
     case = Path(__file__).parents[1] / "cases" / "froment1967_oxylene_packed_tube.toml"
     out = tmp_path / "out"
-    assert main(["sweep", str(case), "--vary", "feed.mole_fractions.OX=0.014:0.019:4",
-                 "--vary", "heat.coolant_temperature=620 K:635 K:3", "--out", str(out)]) == 0
+    assert main(["sweep", str(case), "--vary", "feed.mole_fractions.OX=0.014..0.019 in 4",
+                 "--vary", "heat.medium.temperature=620 K..635 K in 3", "--out", str(out)]) == 0
     assert main(["report", str(case), "--out", str(out), "--no-pdf"]) == 0
     html = (out / "report.html").read_text()
     assert "Runaway map from the sweep" in html

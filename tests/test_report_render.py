@@ -35,12 +35,12 @@ HOSTILE = (
 
 # ----------------------------------------------------------------------------- profiles
 @functools.lru_cache(maxsize=64)
-def _cooled_tube(coolant_T, y_feed=0.01, n=300):
+def _cooled_tube(medium_T, y_feed=0.01, n=300):
     """Explicit RK4 of a pseudo-homogeneous cooled tube, first order A -> B.
 
     Returns z [m], T [K], X [-], P [Pa]. Parameters are round illustrative numbers.
     """
-    length, T0, P0 = 3.0, coolant_T, 2.0e5
+    length, T0, P0 = 3.0, medium_T, 2.0e5
     k0, E, R = 1.0e9, 1.1e5, 8.314462618     # [1/s], [J/mol], [J/mol/K]
     u, dT_ad, St = 1.0, 200.0 * y_feed / 0.01, 2.0    # [m/s], [K], [1/m]
 
@@ -48,7 +48,7 @@ def _cooled_tube(coolant_T, y_feed=0.01, n=300):
         X, T = state
         k = k0 * np.exp(-E / (R * T))
         dX = k * (1.0 - X) / u
-        return np.array([dX, dT_ad * dX - St * (T - coolant_T)])
+        return np.array([dX, dT_ad * dX - St * (T - medium_T)])
 
     z = np.linspace(0.0, length, n)
     h = z[1] - z[0]
@@ -100,10 +100,10 @@ def build_context(title="Oxidation tube T-101, base case", text=None):
     yf = np.linspace(0.006, 0.014, 9)
     hot_y = np.array([_cooled_tube(600.0, y_feed=y, n=150)[1].max() for y in yf])
     temperature_uri = plots.profile_temperature_plot(
-        z, T, coolant_T=600.0, hot_spot=(z[i_hot], T[i_hot]), temperature_limit=700.0,
+        z, T, medium_T=600.0, hot_spot=(z[i_hot], T[i_hot]), temperature_limit=700.0,
         target_position=target_z)
     profile_plots = [
-        plot("Temperature", "Bed and coolant temperature; star: hot spot.", temperature_uri),
+        plot("Temperature", "Bed and medium temperature; star: hot spot.", temperature_uri),
         plot("Conversion", "Conversion of A.",
              plots.profile_lines_plot(z, {t("A"): X}, "Conversion [-]")),
         plot("Pressure", "Absolute pressure.",
@@ -113,14 +113,14 @@ def build_context(title="Oxidation tube T-101, base case", text=None):
                                       "Mole fraction [-]")),
     ]
     sensitivity_plots = [
-        plot("Sensitivity to coolant temperature", "Hot spot against coolant T.",
+        plot("Sensitivity to medium temperature", "Hot spot against medium T.",
              plots.sensitivity_plot(Tc, hot_c, current_x=600.0, critical_x=609.0,
                                     xlabel="Coolant temperature [K]")),
         plot("Sensitivity to feed fraction", "Hot spot against inlet mole fraction.",
              plots.sensitivity_plot(yf, hot_y, current_x=0.01, critical_x=0.0115,
                                     xlabel="Inlet mole fraction of A [-]")),
     ]
-    verdict = {"level": "attention", "text": t("4 % difference")}
+    verdict = {"level": "review", "text": t("4 % difference")}
     return {
         "title": title,
         "case_name": t("t101_base"),
@@ -137,9 +137,9 @@ def build_context(title="Oxidation tube T-101, base case", text=None):
                 {"label": "Adiabatic temperature rise", "value": "200.0", "unit": "K"},
             ],
             "flags": [
-                flag("ok", "Hot spot", "The hot spot stays 40 K below the temperature limit."),
-                flag("attention", "Runaway risk", "Margin to the critical coolant T is 9 K."),
-                flag("danger", "Constant density", "The textbook model is 12 % off in conversion."),
+                flag("acceptable", "Hot spot", "The hot spot stays 40 K below the temperature limit."),
+                flag("review", "Runaway risk", "Margin to the critical medium T is 9 K."),
+                flag("unacceptable", "Constant density", "The ideal design is 12 % off in conversion."),
             ],
         },
         "inputs": {
@@ -150,7 +150,7 @@ def build_context(title="Oxidation tube T-101, base case", text=None):
                          "t_min": "200", "t_max": "1000"},
                         {"name": "N2", "source": "Cantera nasa_gas.yaml", "molar_mass": "28.014",
                          "t_min": "200", "t_max": "6000"}],
-            "reactions": [{"equation": t("A => B"), "rate_law": t("power law, r = k(T) c_A"),
+            "reactions": [{"equation": t("A => B"), "label": t("R1 = reactions[0]"), "rate_form": t("power law, r = k(T) c_A"),
                            "parameters": [_si_row("k0", t("1e9 1/s"), "1e9", "1/s", key="name"),
                                           _si_row("E", "110 kJ/mol", "1.1e5", "J/mol",
                                                   key="name")]}],
@@ -159,7 +159,7 @@ def build_context(title="Oxidation tube T-101, base case", text=None):
         "assumptions": {
             "available": True, "reason_if_not": "",
             "paragraphs": [t("Textbook model: isothermal, constant density, no pressure drop.")],
-            "flags": [flag("attention", "Isothermal", "Temperature varies by 60 K along the bed.")],
+            "flags": [flag("review", "Isothermal", "Temperature varies by 60 K along the bed.")],
             "tables": [_table(t("Textbook against full model"),
                               ["Quantity", "Textbook", "Full", "Verdict"],
                               [[t("Outlet conversion"), "0.95", "0.91", verdict]])],
@@ -173,7 +173,7 @@ def build_context(title="Oxidation tube T-101, base case", text=None):
                               [["B", "18.0"], ["N/S", "5.2"]]),
                        _table("Criteria", ["Criterion", "Critical", "Design", "Margin", "Verdict"],
                               [[t("Barkelew (1959)"), "609 K", "600 K", "9 K",
-                                {"level": "danger", "text": "inside"}]])],
+                                {"level": "unacceptable", "text": "inside"}]])],
             "plots": sensitivity_plots,
         },
         "numerics": {
@@ -259,7 +259,7 @@ def test_sections_in_required_order(rendered):
 
 def test_verdicts_are_words_not_colour_only(rendered):
     html = rendered[0]
-    for level in ("OK", "ATTENTION", "DANGER"):
+    for level in ("acceptable", "review", "unacceptable"):
         badge = rf'class="badge lv-\w+"><span class="sym"[^>]*>.</span>&#160;{level}</span>'
         assert re.search(badge, html), level
 
@@ -289,7 +289,7 @@ def test_missing_field_raises_report_error(context):
 def test_unknown_level_raises_report_error(context):
     broken = copy.deepcopy(context)
     broken["summary"]["flags"][0]["level"] = "fine"
-    with pytest.raises(ReportError, match=r"verdict level must be one of: ok, attention, danger"):
+    with pytest.raises(ReportError, match=r"verdict level must be one of: acceptable, review, unacceptable"):
         report_html.render_html(broken)
 
 
@@ -435,7 +435,7 @@ def test_plot_text_is_escaped_and_literal():
 
 def test_plots_are_deterministic_and_black_and_white_readable():
     z, T, X, P = _cooled_tube(600.0, n=120)
-    kwargs = {"coolant_T": 600.0, "hot_spot": (z[T.argmax()], T.max()),
+    kwargs = {"medium_T": 600.0, "hot_spot": (z[T.argmax()], T.max()),
               "temperature_limit": 800.0, "target_position": 1.0}
     first = plots.profile_temperature_plot(z, T, **kwargs)
     second = plots.profile_temperature_plot(z, T, **kwargs)

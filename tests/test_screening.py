@@ -79,10 +79,10 @@ def test_screening_contract(report):
     assert set(report["criteria"]) == {"semenov", "van_welsenaere_froment", "adler_enig", "morbidelli_varma"}
     for entry in report["criteria"].values():
         assert {"verdict", "critical", "source"} <= set(entry)
-    assert set(report["critical"]) == {"coolant_temperature_K", "feed_mole_fraction", "inlet_temperature_K"}
+    assert set(report["critical"]) == {"medium_temperature_K", "feed_mole_fraction", "inlet_temperature_K"}
     for entry in report["critical"].values():
         assert {"value", "margin", "found"} <= set(entry)
-    assert set(report["sensitivity"]) == {"feed_mole_fraction", "inlet_temperature", "coolant_temperature",
+    assert set(report["sensitivity"]) == {"feed_mole_fraction", "inlet_temperature", "medium_temperature",
                                           "overall_coefficient", "mass_flow"}
     assert report["risk"] in ("runaway", "sensitive", "adequate margin") and report["risk_rule"]
     text = " ".join(report["cautions"]).lower()
@@ -98,7 +98,7 @@ def test_cli_writes_screening_files(cases_dir, tmp_path, capsys):
     assert data["critical"]["feed_mole_fraction"]["found"]
     lines = (tmp_path / "sensitivity.csv").read_text().splitlines()
     assert lines[0] == "parameter,value_SI,hot_spot_temperature_K,normalized_sensitivity" and len(lines) > 50
-    assert "RISK:" in capsys.readouterr().out
+    assert "risk: " in capsys.readouterr().out
 
 
 def test_uncooled_case_is_refused(cases_dir):

@@ -40,7 +40,7 @@ enthalpy_of_formation = "-40 kJ/mol"
 equation = "A => B"
 pre_exponential = "2e3 m^3/(kg*s)"
 activation_energy = "60 kJ/mol"
-per = "catalyst-mass"
+rate_basis = "catalyst-mass"
 
 [feed]
 temperature = "500 K"
@@ -59,9 +59,12 @@ void_fraction = 0.40
 bulk_density = "1000 kg/m^3"
 
 [heat]
-mode = "constant-coolant"
+mode = "exchange"
 overall_coefficient = "150 W/(m^2*K)"
-coolant_temperature = "500 K"
+
+[heat.medium]
+arrangement = "uniform"
+temperature = "500 K"
 
 [pressure_drop]
 model = "ergun"
@@ -168,7 +171,7 @@ def test_a_tube_that_cannot_pass_the_feed_is_not_feasible(write_case):
 
     case = load_case(write_case(_case()))
     few = _evaluate(_with(case, count=1), "count for the given length")   # one tube: pressure floor at ~0.4 m
-    assert few["status"] == "stopped" and not few["meets"]["tube_passes_feed"] and not few["feasible"]
+    assert few["status"] == "stopped" and not few["meets"]["tube_carries_feed"] and not few["feasible"]
     report = size(case)
     n = report["tube_count"]
     assert _run(write_case, "n.toml", count=n).status == "completed"

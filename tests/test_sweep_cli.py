@@ -30,7 +30,7 @@ def _rows(path):
 @pytest.mark.published("morbidelli_varma1988", "boundary on a sweep grid of the Froment (1967) tube; 0.01777 atm from an independent reproduction")
 def test_sweep_boundary_matches_the_morbidelli_varma_critical_value(cases_dir, tmp_path):
     out = tmp_path / "sweep"
-    assert main(["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.0172:0.0184:25",
+    assert main(["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.0172..0.0184 in 25",
                  "--out", str(out)]) == 0
     rows = _rows(out / "results.csv")
     assert len(rows) == 25 and all(r["status"] == "completed" for r in rows)
@@ -45,8 +45,8 @@ def test_sweep_boundary_matches_the_morbidelli_varma_critical_value(cases_dir, t
 
 def test_sweep_map_writes_svg_and_resumes_without_recomputing(cases_dir, tmp_path):
     out = tmp_path / "map"
-    argv = ["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.014:0.019:4",
-            "--vary", "heat.coolant_temperature=620 K:635 K:3", "--out", str(out)]
+    argv = ["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.014..0.019 in 4",
+            "--vary", "heat.medium.temperature=620 K..635 K in 3", "--out", str(out)]
     assert main(argv) == 0
     first = (out / "results.csv").read_text()
     assert len(_rows(out / "results.csv")) == 12
@@ -61,7 +61,7 @@ def _exact_probability(cases_dir, lo, hi, limit):
     raw["design"]["temperature_limit"] = "3000 K"
 
     def hot(Tc):
-        raw["heat"]["coolant_temperature"] = f"{Tc!r} K"
+        raw["heat"]["medium"]["temperature"] = f"{Tc!r} K"
         return simulate(load_case_dict(raw, str(cases_dir / CASE))).hot_spot["temperature_K"]
 
     a, b = lo, hi
@@ -74,7 +74,7 @@ def _exact_probability(cases_dir, lo, hi, limit):
 
 def test_monte_carlo_known_answer(cases_dir, tmp_path):
     text = (cases_dir / CASE).read_text().replace('temperature_limit = "1200 K"', 'temperature_limit = "800 K"')
-    text += '\n[[uncertainty]]\nparameter = "heat.coolant_temperature"\ndistribution = "uniform"\n' \
+    text += '\n[[uncertainty]]\nparameter = "heat.medium.temperature"\ndistribution = "uniform"\n' \
             'low = "620 K"\nhigh = "640 K"\n'
     path = tmp_path / "mc.toml"
     path.write_text(text)
@@ -88,12 +88,12 @@ def test_monte_carlo_known_answer(cases_dir, tmp_path):
     assert p["interval"][0] <= exact <= p["interval"][1]
     assert data["samples"]["seed"] == 11
     assert (tmp_path / "mc" / "exceedance.svg").exists()
-    assert data["rank_correlation_with_hot_spot"]["heat.coolant_temperature"]["spearman_rho"] > 0.9
+    assert data["rank_correlation_with_hot_spot"]["heat.medium.temperature"]["spearman_rho"] > 0.9
 
 
 def test_dask_and_local_pool_give_identical_results(cases_dir, tmp_path):
     distributed = pytest.importorskip("distributed")
-    argv = ["sweep", str(cases_dir / CASE), "--vary", "heat.coolant_temperature=620 K:640 K:6", "--batch-size", "3",
+    argv = ["sweep", str(cases_dir / CASE), "--vary", "heat.medium.temperature=620 K..640 K in 6", "--batch-size", "3",
             "--engine", "pool"]
     assert main(argv + ["--out", str(tmp_path / "local")]) == 0
     with distributed.LocalCluster(n_workers=2, threads_per_worker=1, host="127.0.0.1", dashboard_address=None,
@@ -109,8 +109,8 @@ def test_uncertainty_without_entries_is_a_case_error(cases_dir, tmp_path, capsys
 
 def test_compiled_engine_agrees_with_the_pool_of_lsoda_solves(cases_dir, tmp_path):
     # acceptance bound of the benchmark: |dT*| <= 0.05 K against per-case implicit solves
-    argv = ["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.015:0.019:5",
-            "--vary", "heat.coolant_temperature=620 K:635 K:4"]
+    argv = ["sweep", str(cases_dir / CASE), "--vary", "feed.mole_fractions.OX=0.015..0.019 in 5",
+            "--vary", "heat.medium.temperature=620 K..635 K in 4"]
     assert main(argv + ["--out", str(tmp_path / "c"), "--engine", "compiled"]) == 0
     assert main(argv + ["--out", str(tmp_path / "p"), "--engine", "pool"]) == 0
     compiled = {r["case_id"]: r for r in _rows(tmp_path / "c" / "results.csv")}
@@ -125,7 +125,7 @@ def test_compiled_engine_agrees_with_the_pool_of_lsoda_solves(cases_dir, tmp_pat
 
 def test_resume_may_switch_engines(cases_dir, tmp_path):
     out = tmp_path / "mixed"
-    small = ["sweep", str(cases_dir / CASE), "--vary", "heat.coolant_temperature=620 K:635 K:4", "--out", str(out)]
+    small = ["sweep", str(cases_dir / CASE), "--vary", "heat.medium.temperature=620 K..635 K in 4", "--out", str(out)]
     assert main(small + ["--engine", "pool"]) == 0
     before = (out / "results.csv").read_text()
     assert main(small + ["--engine", "compiled"]) == 0        # nothing left to compute
@@ -133,7 +133,7 @@ def test_resume_may_switch_engines(cases_dir, tmp_path):
 
 
 def test_compiled_engine_refuses_what_it_cannot_run(cases_dir, tmp_path, capsys):
-    code = main(["sweep", str(cases_dir / CASE), "--vary", "tube.length=2 m:3 m:2", "--out", str(tmp_path),
+    code = main(["sweep", str(cases_dir / CASE), "--vary", "tube.length=2 m..3 m in 2", "--out", str(tmp_path),
                  "--engine", "compiled"])
     assert code == 2 and "--engine compiled: not available" in capsys.readouterr().err
 
@@ -141,5 +141,5 @@ def test_compiled_engine_refuses_what_it_cannot_run(cases_dir, tmp_path, capsys)
 def test_sweeps_accept_feed_temperatures_above_the_design_limit(cases_dir, tmp_path):
     # sweeps ignore design.temperature_limit (README), so a feed hotter than it is a valid sweep point
     assert main(["sweep", str(cases_dir / "hydrogenation_cooled_packed_bed.toml"), "--vary",
-                 "feed.temperature=600 K:700 K:2", "--out", str(tmp_path), "--engine", "pool"]) == 0
+                 "feed.temperature=600 K..700 K in 2", "--out", str(tmp_path), "--engine", "pool"]) == 0
     assert len(_rows(tmp_path / "results.csv")) == 2

@@ -37,7 +37,7 @@ BASE_CASE = {
     "feed": {"temperature": "220 degC", "pressure": "2 bar",
              "mole_fractions": {"OX": 0.01, "O2": 0.2, "N2": 0.79}},
     "tube": {"count": 10, "length": "6 m"},
-    "heat": {"coolant_temperature": "600 K"},
+    "heat": {"medium": {"temperature": "600 K"}},
     "reactions": [{"pre_exponential": "1e7 1/s", "activation_energy": "80 kJ/mol"}],
     "design": {"temperature_limit": "750 K"},
 }
@@ -70,7 +70,7 @@ class ClosedFormEvaluator:
 
     def __call__(self, raw, case_dir):
         table = worker_cache(("closed-form-table", self.log_dir), functools.partial(_build_table, self.log_dir))
-        T_c = parse_quantity(raw["heat"]["coolant_temperature"], "temperature", "heat.coolant_temperature")
+        T_c = parse_quantity(raw["heat"]["medium"]["temperature"], "temperature", "heat.medium.temperature")
         y_ox = raw["feed"]["mole_fractions"]["OX"]
         count = raw["tube"]["count"]
         assert isinstance(count, int)
@@ -98,7 +98,7 @@ def _calls(log_dir, tag):
 
 
 def _key(row):
-    return f"{row['heat.coolant_temperature']!r} {int(row['tube.count'])}"
+    return f"{row['heat.medium.temperature']!r} {int(row['tube.count'])}"
 
 
 def _call_keys(log_dir, tag):
@@ -107,29 +107,32 @@ def _call_keys(log_dir, tag):
 
 # -- paths, --vary, grid ----------------------------------------------------------------------
 def test_parse_vary_converts_to_si_and_writes_si_text():
-    spec = parse_vary("heat.coolant_temperature=300 degC:400 degC:3")
+    spec = parse_vary("heat.medium.temperature=300 degC..400 degC in 3")
     # analytic: T[K] = T[degC] + 273.15 (definition of the Celsius scale)
     assert spec.values_si == pytest.approx([573.15, 623.15, 673.15], abs=1e-12)
     assert spec.values_text == ["573.15 K", "623.15 K", "673.15 K"]
     assert spec.dimensionality == "[temperature]"
-    ints = parse_vary("tube.count=10:20:3")
+    ints = parse_vary("tube.count=10..20 in 3")
     assert ints.integer and ints.values_text == ["10", "15", "20"]
-    fractions = parse_vary("feed.mole_fractions.OX=0.01:0.03:3")
+    fractions = parse_vary("feed.mole_fractions.OX=0.01..0.03 in 3")
     assert fractions.values_text == ["0.01", "0.02", "0.03"] and not fractions.integer
-    energy = parse_vary("reactions.0.activation_energy=70 kJ/mol:90 kJ/mol:2")
+    energy = parse_vary("reactions.0.activation_energy=70 kJ/mol..90 kJ/mol in 2")
     assert energy.values_text == ["70000.0 J/mol", "90000.0 J/mol"]
 
 
 @pytest.mark.parametrize("spec, message", [
-    ("heat.coolant_temperature 600 K:660 K:31", r"PATH=START:STOP:N"),
-    ("heat.coolant_temperature=600 K:660 K", r"START:STOP:N"),
-    ("heat.coolant_temperature=600 K:660 K:0", r"N = '0'"),
-    ("heat.coolant_temperature=600 K:660 K:2.5", r"N = '2.5'"),
-    ("heat.coolant_temperature=600 K:660:31", r"same dimension"),
-    ("heat.coolant_temperature=600 K:6 bar:31", r"same dimension"),
-    ("heat.coolant_temperature=600 K:660 K:1", r"N = 1 needs START == STOP"),
-    ("heat..coolant_temperature=600 K:660 K:3", r"not a dotted path"),
-    ("heat.coolant_temperature=600 kelvinz:660 K:3", r"unknown unit"),
+    ("heat.medium.temperature 600 K..660 K in 31", r"PATH=START\.\.STOP in N"),
+    ("heat.medium.temperature=600 K..660 K", r"START\.\.STOP in N after '='"),
+    ("heat.medium.temperature=600 K..660 K in 0", r"N = '0'"),
+    ("heat.medium.temperature=600 K..660 K in 2.5", r"N = '2.5'"),
+    # the colon form of earlier versions is refused with the new spelling
+    ("heat.medium.temperature=600 K:660 K:31",
+     r'no longer accepted; write "heat\.medium\.temperature=600 K\.\.660 K in 31"'),
+    ("heat.medium.temperature=600 K..660 in 31", r"same dimension"),
+    ("heat.medium.temperature=600 K..6 bar in 31", r"same dimension"),
+    ("heat.medium.temperature=600 K..660 K in 1", r"N = 1 needs START == STOP"),
+    ("heat..medium_temperature=600 K..660 K in 3", r"not a dotted path"),
+    ("heat.medium.temperature=600 kelvinz..660 K in 3", r"unknown unit"),
 ])
 def test_parse_vary_rejects_bad_options(spec, message):
     with pytest.raises(CaseError, match=message):
@@ -138,10 +141,10 @@ def test_parse_vary_rejects_bad_options(spec, message):
 
 def test_set_path_copies_and_round_trips_si_text():
     before = copy.deepcopy(BASE_CASE)
-    new = set_path(BASE_CASE, "heat.coolant_temperature", 612.5)
+    new = set_path(BASE_CASE, "heat.medium.temperature", 612.5)
     assert BASE_CASE == before  # input never mutated
-    assert new["heat"]["coolant_temperature"] == "612.5 K"
-    assert parse_quantity(new["heat"]["coolant_temperature"], "temperature", "t") == 612.5
+    assert new["heat"]["medium"]["temperature"] == "612.5 K"
+    assert parse_quantity(new["heat"]["medium"]["temperature"], "temperature", "t") == 612.5
     new = set_path(BASE_CASE, "reactions.0.pre_exponential", 2.5e7)
     assert new["reactions"][0]["pre_exponential"] == "25000000.0 1/s"
     assert BASE_CASE["reactions"][0]["pre_exponential"] == "1e7 1/s"
@@ -151,14 +154,14 @@ def test_set_path_copies_and_round_trips_si_text():
 
 
 @pytest.mark.parametrize("path, value, message", [
-    ("heat.coolant_temprature", 600.0,
-     r"heat\.coolant_temprature: no field 'coolant_temprature' in heat; valid: coolant_temperature\. "
-     r"Did you mean 'coolant_temperature'\?"),
-    ("hat.coolant_temperature", 600.0, r"no field 'hat' in the case; valid: design, feed, heat.*'heat'"),
+    ("heat.medium.temprature", 600.0,
+     r"heat\.medium\.temprature: no field 'temprature' in heat\.medium; valid: temperature\. "
+     r"Did you mean 'temperature'\?"),
+    ("hat.medium.temperature", 600.0, r"no field 'hat' in the case; valid: design, feed, heat.*'heat'"),
     ("reactions.3.pre_exponential", 1.0, r"index 3 out of range; reactions has 1 entries"),
     ("reactions.first.pre_exponential", 1.0, r"reactions is a list; expected an index"),
     ("tube.count", 10.5, r"tube\.count = 10\.5: must be a whole number"),
-    ("heat.coolant_temperature.value", 1.0, r"is a value .* cannot descend"),
+    ("heat.medium.temperature.value", 1.0, r"is a value .* cannot descend"),
     ("feed.mole_fractions.XO", 0.1, r"no field 'XO' in feed\.mole_fractions; valid: N2, O2, OX"),
     ("feed.mole_fractions.OX", 1.0, r"sum to 1\.0 >= 1, leaving nothing for O2, N2"),
     ("feed.mole_fractions.OX", -0.1, r"must be between 0 and 1"),
@@ -183,25 +186,25 @@ def test_mole_fraction_rescales_others_to_sum_one():
 
 
 def test_check_vary_compares_dimension_with_the_case():
-    check_vary(BASE_CASE, parse_vary("heat.coolant_temperature=300 degC:400 degC:3"))
-    check_vary(BASE_CASE, parse_vary("tube.count=8:12:5"))
-    with pytest.raises(CaseError, match=r"heat\.coolant_temperature: needs units like the case value '600 K'"):
-        check_vary(BASE_CASE, parse_vary("heat.coolant_temperature=600:700:3"))
+    check_vary(BASE_CASE, parse_vary("heat.medium.temperature=300 degC..400 degC in 3"))
+    check_vary(BASE_CASE, parse_vary("tube.count=8..12 in 5"))
+    with pytest.raises(CaseError, match=r"heat\.medium\.temperature: needs units like the case value '600 K'"):
+        check_vary(BASE_CASE, parse_vary("heat.medium.temperature=600..700 in 3"))
     with pytest.raises(CaseError, match=r"tube\.count: is a plain number in the case"):
-        check_vary(BASE_CASE, parse_vary("tube.count=1 m:2 m:3"))
+        check_vary(BASE_CASE, parse_vary("tube.count=1 m..2 m in 3"))
     with pytest.raises(CaseError, match=r"has dimension \[temperature\] in the case"):
-        check_vary(BASE_CASE, parse_vary("heat.coolant_temperature=1 bar:2 bar:3"))
+        check_vary(BASE_CASE, parse_vary("heat.medium.temperature=1 bar..2 bar in 3"))
     with pytest.raises(CaseError, match=r"whole-number field"):
-        check_vary(BASE_CASE, parse_vary("tube.count=8:12:4"))
+        check_vary(BASE_CASE, parse_vary("tube.count=8..12 in 4"))
 
 
 def test_grid_is_full_factorial_in_a_fixed_order():
-    cases = grid([parse_vary("tube.count=1:2:2"), parse_vary("heat.coolant_temperature=600 K:700 K:3")])
+    cases = grid([parse_vary("tube.count=1..2 in 2"), parse_vary("heat.medium.temperature=600 K..700 K in 3")])
     assert [cid for cid, _ in cases] == list(range(6))
     assert [tuple(v.values()) for _, v in cases] == [
         (1, 600.0), (1, 650.0), (1, 700.0), (2, 600.0), (2, 650.0), (2, 700.0)]
     with pytest.raises(CaseError, match=r"tube\.count varied more than once"):
-        grid([parse_vary("tube.count=1:2:2"), parse_vary("tube.count=3:4:2")])
+        grid([parse_vary("tube.count=1..2 in 2"), parse_vary("tube.count=3..4 in 2")])
     with pytest.raises(CaseError, match=r"no field 'colant'"):
         get_path(BASE_CASE, "heat.colant")
 
@@ -222,9 +225,9 @@ def test_plan_batches_sizes():
 # -- store --------------------------------------------------------------------------------------
 def test_store_columns_export_and_resume_refusal(tmp_path):
     db = tmp_path / "results.sqlite"
-    with ResultsStore(db, ["heat.coolant_temperature", 'odd"name'], {"command": "sweep", "seed": 1}) as store:
-        assert store.columns == ["case_id", "heat.coolant_temperature", 'odd"name', *RESULT_FIELDS]
-        store.write_rows([{"case_id": 0, "heat.coolant_temperature": 600.0, 'odd"name': 1.0, "status": "ok",
+    with ResultsStore(db, ["heat.medium.temperature", 'odd"name'], {"command": "sweep", "seed": 1}) as store:
+        assert store.columns == ["case_id", "heat.medium.temperature", 'odd"name', *RESULT_FIELDS]
+        store.write_rows([{"case_id": 0, "heat.medium.temperature": 600.0, 'odd"name': 1.0, "status": "ok",
                            "hot_spot_temperature_K": float("nan"), "outlet_conversion": 0.5}])
         with pytest.raises(sqlite3.IntegrityError):
             store.write_rows([{"case_id": 1, "status": "ok"}, {"case_id": 0, "status": "ok"}])
@@ -233,26 +236,26 @@ def test_store_columns_export_and_resume_refusal(tmp_path):
     conn = sqlite3.connect(db)
     names = [row[1] for row in conn.execute("PRAGMA table_info(cases)")]
     conn.close()
-    assert names == ["case_id", "heat.coolant_temperature", 'odd"name', "status", "hot_spot_temperature_K",
+    assert names == ["case_id", "heat.medium.temperature", 'odd"name', "status", "hot_spot_temperature_K",
                      "hot_spot_position_m", "outlet_conversion", "outlet_temperature_K", "outlet_pressure_Pa",
                      "error"]
     lines = csv_path.read_text().splitlines()
-    assert lines[0].startswith('case_id,heat.coolant_temperature,"odd""name",status')
+    assert lines[0].startswith('case_id,heat.medium.temperature,"odd""name",status')
     assert lines[1] == "0,600.0,1.0,ok,,,0.5,,,"
-    with pytest.raises(ResumeError, match=r"holds a run varying \['heat.coolant_temperature', 'odd\"name'\]"):
+    with pytest.raises(ResumeError, match=r"holds a run varying \['heat.medium.temperature', 'odd\"name'\]"):
         ResultsStore(db, ["tube.count"])
     with pytest.raises(ResumeError, match=r"meta seed = 2 differs from the stored run \(1\)"):
-        ResultsStore(db, ["heat.coolant_temperature", 'odd"name'], {"seed": 2})
+        ResultsStore(db, ["heat.medium.temperature", 'odd"name'], {"seed": 2})
     assert ResultsStore.read_meta(db)["seed"] == 1
 
 
 # -- execution on the local process pool ---------------------------------------------------------
 def test_failed_cases_are_recorded_and_the_run_goes_on(tmp_path):
-    vary = ["heat.coolant_temperature=600 K:700 K:5", "tube.count=12:14:3"]
+    vary = ["heat.medium.temperature=600 K..700 K in 5", "tube.count=12..14 in 3"]
     summary = run_grid_sweep(BASE_CASE, tmp_path, vary, ClosedFormEvaluator(tmp_path, fail_count=13),
                              tmp_path / "out", batch_size=4, progress=False)
     assert (summary.total, summary.computed, summary.failed, summary.skipped) == (15, 15, 5, 0)
-    with ResultsStore(tmp_path / "out" / "results.sqlite", ["heat.coolant_temperature", "tube.count"]) as store:
+    with ResultsStore(tmp_path / "out" / "results.sqlite", ["heat.medium.temperature", "tube.count"]) as store:
         rows = store.rows()
     failed = [r for r in rows if r["status"] == "failed"]
     assert {r["tube.count"] for r in failed} == {13.0}
@@ -260,13 +263,13 @@ def test_failed_cases_are_recorded_and_the_run_goes_on(tmp_path):
     assert all(r["hot_spot_temperature_K"] is None for r in failed)
     for r in rows:
         if r["status"] == "ok":  # closed form of the test evaluator, exact
-            T_c = r["heat.coolant_temperature"]
+            T_c = r["heat.medium.temperature"]
             assert r["hot_spot_temperature_K"] == T_c + 10.0 + (STEP if T_c > THRESHOLD else 0.0)
             assert r["hot_spot_position_m"] == 0.1 * r["tube.count"]
             assert r["outlet_pressure_Pa"] == 2e5 - 1e4
     assert (tmp_path / "out" / "results.csv").read_text().count("\n") == 16
     # failed cases are skipped on resume until forgotten; then exactly they run again
-    with ResultsStore(tmp_path / "out" / "results.sqlite", ["heat.coolant_temperature", "tube.count"]) as store:
+    with ResultsStore(tmp_path / "out" / "results.sqlite", ["heat.medium.temperature", "tube.count"]) as store:
         assert store.count(status="failed") == 5 and store.forget("failed") == 5
     again = run_grid_sweep(BASE_CASE, tmp_path, vary, ClosedFormEvaluator(tmp_path, "retry"), tmp_path / "out",
                            batch_size=4, progress=False)
@@ -296,12 +299,12 @@ class _InterruptAfter:
 
 
 def test_resume_after_ctrl_c_computes_each_missing_case_once(tmp_path):
-    vary = ["heat.coolant_temperature=600 K:700 K:40", "tube.count=10:12:3"]
+    vary = ["heat.medium.temperature=600 K..700 K in 40", "tube.count=10..12 in 3"]
     out = tmp_path / "out"
     with pytest.raises(KeyboardInterrupt):
         run_grid_sweep(BASE_CASE, tmp_path, vary, ClosedFormEvaluator(tmp_path, "first", delay=0.01), out,
                        batch_size=10, progress=_InterruptAfter(2))
-    paths = ["heat.coolant_temperature", "tube.count"]
+    paths = ["heat.medium.temperature", "tube.count"]
     with ResultsStore(out / "results.sqlite", paths) as store:
         stored = {_key(r) for r in store.rows()}
     assert 20 <= len(stored) < 120
@@ -320,7 +323,7 @@ def test_resume_after_ctrl_c_computes_each_missing_case_once(tmp_path):
 
 def test_resume_after_sigkill_of_a_running_sweep(tmp_path):
     out = tmp_path / "out"
-    vary = ["heat.coolant_temperature=600 K:700 K:50", "tube.count=10:12:3"]
+    vary = ["heat.medium.temperature=600 K..700 K in 50", "tube.count=10..12 in 3"]
     script = tmp_path / "sweep.py"
     script.write_text(textwrap.dedent(f"""
         from test_sweeps_engine import BASE_CASE, ClosedFormEvaluator
@@ -356,7 +359,7 @@ def test_resume_after_sigkill_of_a_running_sweep(tmp_path):
     conn = sqlite3.connect(db)
     assert conn.execute("PRAGMA integrity_check").fetchone()[0] == "ok"
     conn.close()
-    paths = ["heat.coolant_temperature", "tube.count"]
+    paths = ["heat.medium.temperature", "tube.count"]
     with ResultsStore(db, paths) as store:
         before = store.rows()
     stored = {_key(r) for r in before}
@@ -376,15 +379,15 @@ def test_resume_after_sigkill_of_a_running_sweep(tmp_path):
 
 
 def test_a_case_that_kills_its_worker_is_isolated_and_recorded(tmp_path):
-    vary = ["heat.coolant_temperature=600 K:700 K:8", "tube.count=10:12:3"]
+    vary = ["heat.medium.temperature=600 K..700 K in 8", "tube.count=10..12 in 3"]
     T_values = parse_vary(vary[0]).values_si
     evaluator = ClosedFormEvaluator(crash_when=(float(T_values[3]), 11))
     summary = run_grid_sweep(BASE_CASE, tmp_path, vary, evaluator, tmp_path / "out", batch_size=6, progress=False)
     assert summary.computed == 24 and summary.failed == 1
-    with ResultsStore(tmp_path / "out" / "results.sqlite", ["heat.coolant_temperature", "tube.count"]) as store:
+    with ResultsStore(tmp_path / "out" / "results.sqlite", ["heat.medium.temperature", "tube.count"]) as store:
         rows = store.rows()
     (bad,) = [r for r in rows if r["status"] == "failed"]
-    assert (bad["heat.coolant_temperature"], bad["tube.count"]) == (T_values[3], 11.0)
+    assert (bad["heat.medium.temperature"], bad["tube.count"]) == (T_values[3], 11.0)
     assert bad["error"].startswith("worker process died while computing this case")
     assert sum(r["status"] == "ok" for r in rows) == 23
 
@@ -401,7 +404,7 @@ class _WorkersWithoutTubesim(cf.ThreadPoolExecutor):
 def test_platform_failure_stops_the_run_instead_of_storing_failed_cases(tmp_path):
     with _WorkersWithoutTubesim(1) as pool, pytest.raises(SweepError, match=r"failed outside the evaluator "
                                                            r"\(ModuleNotFoundError: No module named 'simulator'\)"):
-        run_grid_sweep(BASE_CASE, tmp_path, ["tube.count=10:12:3"], ClosedFormEvaluator(), tmp_path / "out",
+        run_grid_sweep(BASE_CASE, tmp_path, ["tube.count=10..12 in 3"], ClosedFormEvaluator(), tmp_path / "out",
                        executor=pool, progress=False)
     with ResultsStore(tmp_path / "out" / "results.sqlite", ["tube.count"]) as store:
         assert store.count() == 0
@@ -409,7 +412,7 @@ def test_platform_failure_stops_the_run_instead_of_storing_failed_cases(tmp_path
 
 def test_bad_path_fails_before_any_worker_starts(tmp_path):
     with pytest.raises(CaseError, match=r"no field 'coolant_temp' in heat"):
-        run_grid_sweep(BASE_CASE, tmp_path, ["heat.coolant_temp=600 K:700 K:3"], ClosedFormEvaluator(),
+        run_grid_sweep(BASE_CASE, tmp_path, ["heat.coolant_temp=600 K..700 K in 3"], ClosedFormEvaluator(),
                        tmp_path / "out", progress=False)
 
 
@@ -422,13 +425,13 @@ def _uncertain_case(entries):
 
 def test_parse_uncertainty_reports_every_problem():
     raw = _uncertain_case([
-        {"parameter": "heat.coolant_temperature", "distribution": "normal", "std": "2 bar"},
-        {"parameter": "heat.coolant_temperature", "distribution": "normall", "std": "2 K"},
+        {"parameter": "heat.medium.temperature", "distribution": "normal", "std": "2 bar"},
+        {"parameter": "heat.medium.temperature", "distribution": "normall", "std": "2 K"},
         {"parameter": "reactions.0.pre_exponential", "distribution": "lognormal", "factor": 0.5},
         {"parameter": "reactions.0.activation_energy", "distribution": "uniform", "low": "70 kJ/mol"},
-        {"parameter": "heat.coolant_temperature", "distribution": "normal", "std": "2 degC"},
+        {"parameter": "heat.medium.temperature", "distribution": "normal", "std": "2 degC"},
         {"parameter": "tube.count", "distribution": "normal", "std": 1},
-        {"parameter": "heat.coolant_temperature", "distribution": "normal", "sdt": "2 K", "std": "1 K"},
+        {"parameter": "heat.medium.temperature", "distribution": "normal", "sdt": "2 K", "std": "1 K"},
     ])
     with pytest.raises(CaseError) as info:
         sampling.parse_uncertainty(raw["uncertainty"], raw)
@@ -449,7 +452,7 @@ def test_normal_and_lognormal_samples_follow_their_definitions():
     raw = _uncertain_case([
         {"parameter": "reactions.0.activation_energy", "distribution": "normal", "std": "2 kJ/mol"},
         {"parameter": "reactions.0.pre_exponential", "distribution": "lognormal", "factor": 1.5},
-        {"parameter": "heat.coolant_temperature", "distribution": "uniform", "low": "330 degC", "high": "430 degC"},
+        {"parameter": "heat.medium.temperature", "distribution": "uniform", "low": "330 degC", "high": "430 degC"},
     ])
     specs = sampling.parse_uncertainty(raw["uncertainty"], raw)
     base = sampling.base_values(specs, raw)
@@ -497,7 +500,7 @@ def test_monte_carlo_known_answer_and_resume_with_recorded_seed(tmp_path):
     # the 750 K limit exactly when T_c > 675 K, so P = (700 - 675) / (700 - 600) = 0.25.
     # Its hot spot is strictly increasing in T_c, so Spearman's rho = 1 exactly.
     raw = _uncertain_case([
-        {"parameter": "heat.coolant_temperature", "distribution": "uniform", "low": "600 K", "high": "700 K"},
+        {"parameter": "heat.medium.temperature", "distribution": "uniform", "low": "600 K", "high": "700 K"},
         {"parameter": "reactions.0.activation_energy", "distribution": "normal", "std": "2 kJ/mol"},
     ])
     out = tmp_path / "mc"
@@ -512,7 +515,7 @@ def test_monte_carlo_known_answer_and_resume_with_recorded_seed(tmp_path):
     assert hot["p50"] == pytest.approx(650.0 + 10.0, abs=1.0)         # median of U(600, 700) + 10 K
     assert hot["p95"] == pytest.approx(695.0 + 10.0 + STEP, abs=1.0)  # 95th percentile + 10 K + step
     rho = result["rank_correlation_with_hot_spot"]
-    assert rho["heat.coolant_temperature"]["spearman_rho"] == pytest.approx(1.0, abs=1e-12)
+    assert rho["heat.medium.temperature"]["spearman_rho"] == pytest.approx(1.0, abs=1e-12)
     assert abs(rho["reactions.0.activation_energy"]["spearman_rho"]) < 0.3
     seed = result["samples"]["seed"]
     assert ResultsStore.read_meta(out / "results.sqlite")["seed"] == seed
@@ -585,7 +588,7 @@ def test_progress_plain_lines_and_terminal_bar():
 # -- Dask on loopback (kept last: it starts threads in this process) ---------------------------------------
 def test_dask_cluster_gives_the_same_results_as_the_local_pool(tmp_path):
     distributed = pytest.importorskip("distributed")
-    vary = ["heat.coolant_temperature=600 K:700 K:20", "tube.count=12:14:3", "feed.mole_fractions.OX=0.01:0.02:2"]
+    vary = ["heat.medium.temperature=600 K..700 K in 20", "tube.count=12..14 in 3", "feed.mole_fractions.OX=0.01..0.02 in 2"]
     evaluator = ClosedFormEvaluator(fail_count=13)
     local = run_grid_sweep(BASE_CASE, tmp_path, vary, evaluator, tmp_path / "local", batch_size=25, progress=False)
     with distributed.LocalCluster(n_workers=2, threads_per_worker=1, host="127.0.0.1", dashboard_address=None,

@@ -85,26 +85,26 @@ def _with_exponent(raw):
 
 MAP_CASES = [
     ("hydrogenation", HYDRO, _with_exponent,
-     ["heat.coolant_temperature", "heat.overall_coefficient", "feed.temperature", "feed.pressure",
+     ["heat.medium.temperature", "heat.overall_coefficient", "feed.temperature", "feed.pressure",
       "feed.molar_flow", "feed.mole_fractions.C2H4", "reactions.0.pre_exponential",
       "reactions.0.activation_energy", "reactions.0.temperature_exponent"],
      [[405.0, 150.0, 430.0, 4.0e5, 120.0, 0.06, 3.0e5, 6.2e4, 0.0],
       [437.3, 212.5, 401.1, 6.5e5, 171.0, 0.0317, 5.5e5, 5.7e4, 0.5],
       [455.0, 0.0, 455.0, 5.0e5, 150.0, 0.05, 4.0e5, 6.0e4, -1.0]]),
     ("two fractions at once", HYDRO, None,
-     ["feed.mole_fractions.H2", "feed.mole_fractions.C2H4", "heat.coolant_temperature"],
+     ["feed.mole_fractions.H2", "feed.mole_fractions.C2H4", "heat.medium.temperature"],
      [[0.2, 0.07, 430.0], [0.1, 0.03, 415.5], [0.33, 0.011, 440.0]]),
     ("volumetric flow", HYDRO, _volumetric,
      ["feed.temperature", "feed.pressure", "feed.volumetric_flow", "feed.mole_fractions.N2"],
      [[420.0, 5.0e5, 1.8, 0.8], [398.7, 7.1e5, 2.3, 0.71], [441.0, 3.3e5, 1.1, 0.9]]),
     ("mass flow, custom species", OXYLENE, None,
-     ["feed.mole_fractions.OX", "feed.mass_flow", "feed.temperature", "heat.coolant_temperature"],
+     ["feed.mole_fractions.OX", "feed.mass_flow", "feed.temperature", "heat.medium.temperature"],
      [[0.015, 6.59e-4, 625.0, 625.0], [0.0187, 7.0e-4, 631.2, 618.4], [0.0101, 5.5e-4, 612.0, 640.0]]),
     ("viscosity from Cantera, reversible", DEHYDRO, None,
-     ["feed.temperature", "feed.mole_fractions.C2H6", "heat.coolant_temperature"],
+     ["feed.temperature", "feed.mole_fractions.C2H6", "heat.medium.temperature"],
      [[950.0, 0.6, 1250.0], [905.5, 0.45, 1210.0]]),
     ("Peng-Robinson, viscosity from Cantera", METHANOL, None,
-     ["heat.coolant_temperature", "feed.mole_fractions.CO", "feed.pressure"],
+     ["heat.medium.temperature", "feed.mole_fractions.CO", "feed.pressure"],
      [[500.0, 0.3, 1.0e7], [510.0, 0.24, 9.0e6], [492.0, 0.33, 1.1e7]]),
 ]
 
@@ -131,7 +131,7 @@ def test_parameter_map_reproduces_build_model(label, path, edit, paths, rows):
 def test_values_the_loader_rejects_are_marked_and_take_the_normal_path():
     raw = _raw(HYDRO)
     base = _model(raw, HYDRO)
-    paths = ["feed.mole_fractions.C2H4", "heat.coolant_temperature"]
+    paths = ["feed.mole_fractions.C2H4", "heat.medium.temperature"]
     rows = np.array([[1.2, 420.0], [0.05, -3.0], [0.05, 420.0], [math.nan, 420.0]])
     packed = fast.pack_cases(base, rows, paths)
     assert packed.valid.tolist() == [False, False, True, False]
@@ -149,18 +149,18 @@ def test_values_the_loader_rejects_are_marked_and_take_the_normal_path():
 def test_supports():
     raw = _raw(HYDRO)
     base = _model(raw, HYDRO)
-    assert fast.supports(["heat.coolant_temperature", "feed.mole_fractions.C2H4"])
+    assert fast.supports(["heat.medium.temperature", "feed.mole_fractions.C2H4"])
     assert fast.supports(["reactions.0.activation_energy"], base)
     assert not fast.supports(["tube.length"])
     assert not fast.supports(["bed.void_fraction"], base)
-    assert not fast.supports(["heat.coolant_temperature", "heat.coolant_temperature"])
+    assert not fast.supports(["heat.medium.temperature", "heat.medium.temperature"])
     assert not fast.supports(["feed.mass_flow"], base)            # the case gives molar_flow
     assert not fast.supports(["feed.mole_fractions.CH4"], base)   # not in the feed table
     assert not fast.supports(["reactions.1.pre_exponential"], base)
     assert not fast.supports([])
     adiabatic = copy.deepcopy(raw)
     adiabatic["heat"] = {"mode": "adiabatic"}
-    assert not fast.supports(["heat.coolant_temperature"], _model(adiabatic, HYDRO))
+    assert not fast.supports(["heat.medium.temperature"], _model(adiabatic, HYDRO))
     with pytest.raises(ValueError, match="tube.length"):
         fast.batch_solve(base, np.array([[3.0]]), ["tube.length"])
 
@@ -196,7 +196,7 @@ def test_agrees_with_simulate_around_the_oxylene_runaway_boundary():
     # coolant = feed temperature varied together is the source's setting; here the coolant
     # alone, across the boundary (runaway sets in near y_OX = 0.018 at 625 K)
     params = _grid((615.0, 0.013), (635.0, 0.020))
-    out, statuses, worst = _compare(OXYLENE, ["heat.coolant_temperature", "feed.mole_fractions.OX"], params)
+    out, statuses, worst = _compare(OXYLENE, ["heat.medium.temperature", "feed.mole_fractions.OX"], params)
     assert "stopped" in statuses and "completed" in statuses  # both sides of the boundary
     assert np.nanmax(out["hot_spot_temperature_K"]) >= 1200.0 - 1e-6  # runaway reaches the case's limit
     assert not out["fallback"].any()
@@ -204,7 +204,7 @@ def test_agrees_with_simulate_around_the_oxylene_runaway_boundary():
 
 def test_agrees_with_simulate_on_the_hydrogenation_case():
     params = _grid((405.0, 0.03), (455.0, 0.09))
-    out, statuses, worst = _compare(HYDRO, ["heat.coolant_temperature", "feed.mole_fractions.C2H4"], params)
+    out, statuses, worst = _compare(HYDRO, ["heat.medium.temperature", "feed.mole_fractions.C2H4"], params)
     assert "stopped" in statuses and "completed" in statuses
     assert not out["fallback"].any()
 
@@ -214,7 +214,7 @@ def test_agrees_with_simulate_without_a_limit_on_runaway_peaks():
     raw = _raw(HYDRO)
     del raw["design"]["temperature_limit"]
     params = _grid((420.0, 0.06), (455.0, 0.10), n=4)
-    out, statuses, worst = _compare(HYDRO, ["heat.coolant_temperature", "feed.mole_fractions.C2H4"], params,
+    out, statuses, worst = _compare(HYDRO, ["heat.medium.temperature", "feed.mole_fractions.C2H4"], params,
                                     raw=raw)
     assert set(statuses) == {"completed"}
     assert np.max(out["hot_spot_temperature_K"]) > 750.0
@@ -222,7 +222,7 @@ def test_agrees_with_simulate_without_a_limit_on_runaway_peaks():
 
 def test_agrees_with_simulate_on_a_real_gas_case():
     params = np.array([[500.0, 0.3, 1.0e7], [510.0, 0.24, 9.0e6], [492.0, 0.33, 1.1e7]])
-    out, statuses, worst = _compare(METHANOL, ["heat.coolant_temperature", "feed.mole_fractions.CO",
+    out, statuses, worst = _compare(METHANOL, ["heat.medium.temperature", "feed.mole_fractions.CO",
                                                "feed.pressure"], params)
     assert not out["fallback"].any()
 
@@ -230,7 +230,7 @@ def test_agrees_with_simulate_on_a_real_gas_case():
 def test_temperature_limit_argument_per_case():
     raw = _raw(HYDRO)
     base = _model(raw, HYDRO)
-    paths = ["heat.coolant_temperature", "feed.mole_fractions.C2H4"]
+    paths = ["heat.medium.temperature", "feed.mole_fractions.C2H4"]
     params = np.array([[445.0, 0.09], [445.0, 0.09]])
     out = fast.batch_solve(base, params, paths, temperature_limit=[650.0, math.inf])
     assert [fast.STATUS_NAMES[s] for s in out["status"]] == ["stopped", "completed"]
@@ -242,7 +242,7 @@ def test_temperature_limit_argument_per_case():
 def test_fallback_path_equals_simulate():
     raw = _raw(OXYLENE)
     base = _model(raw, OXYLENE)
-    paths = ["heat.coolant_temperature", "feed.mole_fractions.OX"]
+    paths = ["heat.medium.temperature", "feed.mole_fractions.OX"]
     params = np.array([[625.0, 0.015], [630.0, 0.019], [620.0, 0.012]])
     out = fast.batch_solve(base, params, paths, max_steps=5)   # far too few steps: every case falls back
     assert out["fallback"].all()
@@ -263,7 +263,7 @@ def test_stiffness_detection_marks_cases_for_fallback():
     # along the tube, where the explicit method is held back by stability, not accuracy
     raw = _raw(DEHYDRO)
     base = _model(raw, DEHYDRO)
-    paths = ["reactions.0.pre_exponential", "heat.coolant_temperature"]
+    paths = ["reactions.0.pre_exponential", "heat.medium.temperature"]
     params = np.array([[4.0e14, 1250.0]])
     quiet = fast.batch_solve(base, params, paths)
     assert quiet["stiff"][0] and not quiet["fallback"][0]
@@ -281,7 +281,7 @@ def test_stiffness_detection_marks_cases_for_fallback():
 def test_one_and_two_threads_give_identical_results():
     raw = _raw(HYDRO)
     base = _model(raw, HYDRO)
-    paths = ["heat.coolant_temperature", "feed.mole_fractions.C2H4"]
+    paths = ["heat.medium.temperature", "feed.mole_fractions.C2H4"]
     params = _grid((405.0, 0.03), (455.0, 0.09), n=5)
     one = fast.batch_solve(base, params, paths, threads=1)
     two = fast.batch_solve(base, params, paths, threads=2)

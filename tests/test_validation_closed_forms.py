@@ -188,8 +188,8 @@ equation = "A => B"
 pre_exponential = "{k_prime!r} m^3/(kg*s)"
 activation_energy = "0 kJ/mol"
 orders = {{ A = 1 }}
-driving_force = "concentration"
-per = "catalyst-mass"
+in_terms_of = "concentration"
+rate_basis = "catalyst-mass"
 
 [feed]
 temperature = "{BED_T!r} K"

@@ -12,7 +12,7 @@ from pathlib import Path
 
 from simulator.case.equation import parse_equation
 from simulator.case.schema import (
-    Adsorption, AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, PressureDrop,
+    AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, InhibitionTerm, PressureDrop,
     Reaction, SolverOptions, Thermo, Tube,
 )
 from simulator.errors import CaseError, ThermoError, UnitError
@@ -28,20 +28,45 @@ KEYS = {
     "thermo.custom.*": {"molar_mass", "cp", "enthalpy_of_formation", "standard_entropy",
                         "critical_temperature", "critical_pressure", "acentric_factor"},
     "thermo.critical.*": {"critical_temperature", "critical_pressure", "acentric_factor"},
-    "reactions.*": {"equation", "rate_law", "pre_exponential", "activation_energy", "temperature_exponent",
-                    "orders", "driving_force", "per", "adsorption", "denominator_exponent"},
-    "reactions.*.adsorption.*": {"species", "pre_exponential", "heat_of_adsorption"},
+    "reactions.*": {"equation", "form", "pre_exponential", "activation_energy", "temperature_exponent",
+                    "orders", "in_terms_of", "rate_basis", "inhibition", "inhibition_power"},
+    "reactions.*.inhibition.*": {"species", "pre_exponential", "heat_of_adsorption"},
     "feed": {"temperature", "pressure", "molar_flow", "mass_flow", "volumetric_flow", "mole_fractions"},
     "tube": {"length", "inner_diameter", "count", "roughness"},
     "bed": {"particle_diameter", "void_fraction", "bulk_density"},
-    "heat": {"mode", "overall_coefficient", "coolant_temperature", "coolant_mass_flow", "coolant_cp"},
+    "heat": {"mode", "overall_coefficient", "medium"},
+    "heat.medium": {"arrangement", "temperature", "mass_flow", "cp"},
     "pressure_drop": {"model", "viscosity", "friction_correlation"},
     "design": {"key_species", "target_conversion", "temperature_limit", "max_pressure_drop"},
     "solver": {"rtol", "atol_scale", "output_points", "max_step"},
     "assumptions": {"isothermal", "isobaric", "ideal_gas", "constant_moles"},
     "uncertainty.*": {"parameter", "distribution", "std", "factor", "low", "high"},
 }
-HEAT_MODES = ("isothermal", "adiabatic", "constant-coolant", "co-current")
+HEAT_MODES = ("adiabatic", "isothermal", "exchange")
+ARRANGEMENTS = ("uniform", "co-current")
+RATE_FORMS = ("power-law", "hougen-watson")
+ACTIVITY_BASES = ("concentration", "partial-pressure")
+RATE_BASES = ("reactor-volume", "catalyst-mass")
+
+#: Keys of earlier versions, refused with a pointer to the key that replaced them:
+#: (table pattern, old key) -> what to write instead.
+RENAMED_KEYS = {
+    ("heat", "coolant_temperature"): 'heat.medium.temperature (with heat.mode = "exchange")',
+    ("heat", "coolant_mass_flow"): 'heat.medium.mass_flow (with heat.medium.arrangement = "co-current")',
+    ("heat", "coolant_cp"): 'heat.medium.cp (with heat.medium.arrangement = "co-current")',
+    ("reactions.*", "rate_law"): 'form = "power-law" | "hougen-watson"',
+    ("reactions.*", "driving_force"): 'in_terms_of = "concentration" | "partial-pressure"',
+    ("reactions.*", "per"): 'rate_basis = "reactor-volume" | "catalyst-mass"',
+    ("reactions.*", "adsorption"): "[[reactions.inhibition]] terms (species, pre_exponential, heat_of_adsorption)",
+    ("reactions.*", "denominator_exponent"): "inhibition_power",
+}
+#: Values of earlier versions: (table pattern, key, old value) -> what to write instead.
+RENAMED_VALUES = {
+    ("heat", "mode", "constant-coolant"): 'heat.mode = "exchange" with heat.medium.arrangement = "uniform"',
+    ("heat", "mode", "co-current"): 'heat.mode = "exchange" with heat.medium.arrangement = "co-current"',
+    ("reactions.*", "form", "lhhw"): 'form = "hougen-watson"',
+    ("reactions.*", "rate_basis", "volume"): 'rate_basis = "reactor-volume"',
+}
 PRESSURE_MODELS = ("none", "ergun", "pipe-friction")
 FRICTION = ("churchill-1977", "colebrook-1939", "blasius-1913", "laminar")
 EOS = ("ideal-gas", "peng-robinson")
@@ -57,12 +82,17 @@ class _Checker:
     def fail(self, path, message):
         self.problems.append(f"{self.where}{path}{message}")
 
-    def keys(self, table, allowed, path):
+    def keys(self, table, allowed, path, pattern=None):
+        """Flag every key of ``table`` not in ``allowed``; a renamed key points to its new name."""
         if not isinstance(table, dict):
             self.fail(path, f": must be a table, got {table!r}")
             return
+        pattern = path if pattern is None else pattern
         for key in table:
-            if key not in allowed:
+            new = RENAMED_KEYS.get((pattern, key))
+            if new is not None:
+                self.fail(f"{path + '.' if path else ''}{key}", f": renamed; write {new}.")
+            elif key not in allowed:
                 hint = difflib.get_close_matches(key, sorted(allowed), n=2)
                 suggestion = f"did you mean {', '.join(repr(h) for h in hint)}? " if hint else ""
                 self.fail(f"{path + '.' if path else ''}{key}",
@@ -118,12 +148,17 @@ class _Checker:
             return default
         return value
 
-    def choice(self, table, key, path, choices, default=None):
+    def choice(self, table, key, path, choices, default=None, pattern=None):
         if key not in table:
             if default is None:
                 self.fail(f"{path}.{key}", f": missing; choose one of: {', '.join(choices)}.")
             return default
         value = table[key]
+        new = RENAMED_VALUES.get((path if pattern is None else pattern, key, value)) \
+            if isinstance(value, str) else None
+        if new is not None:
+            self.fail(f"{path}.{key}", f" = {value!r}: renamed; write {new}.")
+            return default
         if value not in choices:
             hint = difflib.get_close_matches(str(value), choices, n=1)
             self.fail(f"{path}.{key}", f" = {value!r}: unknown; choose one of: {', '.join(choices)}."
@@ -204,8 +239,8 @@ def load_case_dict(raw, source_path="", case_dir=None):
             and design.temperature_limit <= feed.temperature:
         ck.fail("design.temperature_limit", f" = {raw['design'].get('temperature_limit')!r}: must be above the feed "
                 f"temperature ({feed.temperature:.6g} K).")
-    if any(r.per == "catalyst-mass" for r in reactions) and bed is None:
-        ck.fail("reactions", ': a rate per "catalyst-mass" needs a [bed] table with bulk_density.')
+    if any(r.rate_basis == "catalyst-mass" for r in reactions) and bed is None:
+        ck.fail("reactions", ': rate_basis = "catalyst-mass" needs a [bed] table with bulk_density.')
 
     species = _species_order(feed, reactions)
     _check_species(ck, species, thermo, reactions, feed, design)
@@ -264,12 +299,12 @@ def _thermo(ck, raw, case_dir):
                   custom=tuple(custom), critical=tuple(critical))
 
 
-def _activity_unit(driving_force):
-    return "mol/m**3" if driving_force == "concentration" else "Pa"
+def _activity_unit(in_terms_of):
+    return "mol/m**3" if in_terms_of == "concentration" else "Pa"
 
 
-def _rate_unit(per):
-    return "mol/(m**3*s)" if per == "volume" else "mol/(kg*s)"
+def _rate_unit(rate_basis):
+    return "mol/(m**3*s)" if rate_basis == "reactor-volume" else "mol/(kg*s)"
 
 
 def _reactions(ck, raw):
@@ -283,16 +318,16 @@ def _reactions(ck, raw):
         if not isinstance(r, dict):
             ck.fail(path, ": must be a table")
             continue
-        ck.keys(r, KEYS["reactions.*"], path)
+        ck.keys(r, KEYS["reactions.*"], path, pattern="reactions.*")
         try:
             stoich, reversible = parse_equation(r.get("equation"))
         except ValueError as err:
             ck.fail(f"{path}.equation", f" = {r.get('equation')!r}: {err}.")
             continue
-        law = ck.choice(r, "rate_law", path, ("power-law", "lhhw"), default="power-law")
-        driving = ck.choice(r, "driving_force", path, ("concentration", "partial-pressure"),
-                            default="concentration")
-        per = ck.choice(r, "per", path, ("volume", "catalyst-mass"), default="volume")
+        form = ck.choice(r, "form", path, RATE_FORMS, default="power-law", pattern="reactions.*")
+        driving = ck.choice(r, "in_terms_of", path, ACTIVITY_BASES, default="concentration",
+                            pattern="reactions.*")
+        per = ck.choice(r, "rate_basis", path, RATE_BASES, default="reactor-volume", pattern="reactions.*")
         orders_raw = r.get("orders")
         if orders_raw is None:
             orders = {s: -nu for s, nu in stoich.items() if nu < 0}
@@ -318,7 +353,7 @@ def _reactions(ck, raw):
             except UnitError as err:
                 example = _rate_constant_example(n, driving, per)
                 ck.fail(f"{path}.pre_exponential", f"{err}".split(": wrong dimension")[0] +
-                        (f": units do not match orders (sum {n:g}), driving force {driving!r} and rate per "
+                        (f": units do not match orders (sum {n:g}), in_terms_of = {driving!r} and rate_basis = "
                          f"{per!r}; give them as rate / activity^{n:g}, e.g. \"1.0e5 {example}\" "
                          f"(k = A T^b exp(-E/RT) with T in K: b adds no unit)."
                          if "wrong dimension" in str(err) else ""))
@@ -327,35 +362,35 @@ def _reactions(ck, raw):
                     ck.fail(f"{path}.pre_exponential", f" = {r['pre_exponential']!r}: must be >= 0.")
         E = ck.quantity(r, "activation_energy", "molar_energy", path, required=True)
         b = ck.number(r, "temperature_exponent", path, default=0.0, lo=-10, hi=10)
-        adsorption, n_den = (), 1.0
-        if law == "lhhw":
-            adsorption = _adsorption(ck, r, path, activity)
-            n_den = ck.number(r, "denominator_exponent", path, default=1.0, lo=0.0, hi=4.0)
-        elif "adsorption" in r or "denominator_exponent" in r:
-            ck.fail(path, ': adsorption terms need rate_law = "lhhw".')
+        inhibition, n_den = (), 1.0
+        if form == "hougen-watson":
+            inhibition = _inhibition(ck, r, path, activity)
+            n_den = ck.number(r, "inhibition_power", path, default=1.0, lo=0.0, hi=4.0)
+        elif "inhibition" in r or "inhibition_power" in r:
+            ck.fail(path, ': inhibition terms need form = "hougen-watson".')
         if reversible:
             for s, nu in stoich.items():
                 if nu < 0 and orders.get(s, 0.0) + nu < -1e-12:
                     ck.fail(f"{path}.orders.{s}", f" = {orders.get(s, 0.0):g}: for a reversible reaction the "
                             f"order of a reactant must be >= its coefficient ({-nu:g}) so that the reverse "
                             "rate (forward rate x Q/K) stays finite.")
-        as_written = tuple((k, str(v)) for k, v in r.items() if k != "adsorption")
+        as_written = tuple((k, str(v)) for k, v in r.items() if k != "inhibition")
         out.append(Reaction(equation=r.get("equation"), stoichiometry=tuple(stoich.items()),
-                            reversible=reversible, rate_law=law or "power-law", pre_exponential=A,
+                            reversible=reversible, form=form or "power-law", pre_exponential=A,
                             activation_energy=E, temperature_exponent=b, orders=tuple(orders.items()),
-                            driving_force=driving or "concentration", per=per or "volume",
-                            adsorption=adsorption, denominator_exponent=n_den, as_written=as_written))
+                            in_terms_of=driving or "concentration", rate_basis=per or "reactor-volume",
+                            inhibition=inhibition, inhibition_power=n_den, as_written=as_written))
     return out
 
 
-def _rate_constant_example(n, driving, per):
+def _rate_constant_example(n, in_terms_of, rate_basis):
     """A pasteable unit for a pre-exponential factor in the user's own basis, e.g. mol/(kg*s*bar^1.5)."""
-    rate = "mol/(kg*s" if per == "catalyst-mass" else "mol/(m^3*s"
-    if driving == "partial-pressure":
+    rate = "mol/(kg*s" if rate_basis == "catalyst-mass" else "mol/(m^3*s"
+    if in_terms_of == "partial-pressure":
         return f"{rate})" if n == 0 else f"{rate}*bar^{n:g})"
     if n == 0:
         return f"{rate})"
-    return f"{rate}) / (mol/m^3)^{n:g}" if n != 1 else "1/s" if per == "volume" else "m^3/(kg*s)"
+    return f"{rate}) / (mol/m^3)^{n:g}" if n != 1 else "1/s" if rate_basis == "reactor-volume" else "m^3/(kg*s)"
 
 
 def _si_text(expression):
@@ -364,15 +399,15 @@ def _si_text(expression):
     return f"{registry().Quantity(1, expression).to_base_units().units:~P}"
 
 
-def _adsorption(ck, r, path, activity):
-    terms = r.get("adsorption", [])
+def _inhibition(ck, r, path, activity):
+    terms = r.get("inhibition", [])
     if not isinstance(terms, list) or not terms:
-        ck.fail(f"{path}.adsorption", ': rate_law = "lhhw" needs [[reactions.adsorption]] terms.')
+        ck.fail(f"{path}.inhibition", ': form = "hougen-watson" needs [[reactions.inhibition]] terms.')
         return ()
     out = []
     for m, a in enumerate(terms):
-        p = f"{path}.adsorption.{m}"
-        ck.keys(a, KEYS["reactions.*.adsorption.*"], p)
+        p = f"{path}.inhibition.{m}"
+        ck.keys(a, KEYS["reactions.*.inhibition.*"], p)
         exps = a.get("species") if isinstance(a, dict) else None
         if not isinstance(exps, dict) or not exps:
             ck.fail(f"{p}.species", ": must be a table of exponents such as { A = 1 }.")
@@ -384,11 +419,11 @@ def _adsorption(ck, r, path, activity):
         except UnitError as err:
             act = "bar" if activity == "Pa" else "(mol/m^3)"
             text = str(err).split(": wrong dimension")[0]
-            ck.fail(f"{p}.pre_exponential", f"{text}: an adsorption constant has units of 1 / activity^{total:g}, "
+            ck.fail(f"{p}.pre_exponential", f"{text}: an inhibition constant has units of 1 / activity^{total:g}, "
                     f"e.g. \"0.1 1/{act}^{total:g}\".")
         dH = ck.quantity(a, "heat_of_adsorption", "molar_energy", p)
-        out.append(Adsorption(exponents=tuple((k, float(v)) for k, v in exps.items()),
-                              pre_exponential=K0, heat_of_adsorption=dH))
+        out.append(InhibitionTerm(exponents=tuple((k, float(v)) for k, v in exps.items()),
+                                  pre_exponential=K0, heat_of_adsorption=dH))
     return tuple(out)
 
 
@@ -450,23 +485,29 @@ def _heat(ck, raw):
     h = ck.table(raw, "heat", "heat")
     ck.keys(h, KEYS["heat"], "heat")
     mode = ck.choice(h, "mode", "heat", HEAT_MODES)
-    U = Tc = mc = cpc = NAN
-    if mode in ("constant-coolant", "co-current"):
+    U = Tm = mass_flow = cp = NAN
+    arrangement = ""
+    if mode == "exchange":
         U = ck.quantity(h, "overall_coefficient", "heat_transfer_coefficient", "heat", minimum=0.0, strict=False)
-        Tc = ck.quantity(h, "coolant_temperature", "temperature", "heat", minimum=0.0)
-    if mode == "co-current":
-        mc = ck.quantity(h, "coolant_mass_flow", "mass_flow", "heat", minimum=0.0)
-        cpc = ck.quantity(h, "coolant_cp", "specific_heat_capacity", "heat", minimum=0.0)
-    if mode in ("isothermal", "adiabatic"):
-        extra = [k for k in ("overall_coefficient", "coolant_temperature", "coolant_mass_flow", "coolant_cp")
-                 if k in h]
+        m = ck.table(h, "medium", "heat.medium")
+        ck.keys(m, KEYS["heat.medium"], "heat.medium")
+        arrangement = ck.choice(m, "arrangement", "heat.medium", ARRANGEMENTS, default="uniform") or "uniform"
+        Tm = ck.quantity(m, "temperature", "temperature", "heat.medium", minimum=0.0)
+        if arrangement == "co-current":
+            mass_flow = ck.quantity(m, "mass_flow", "mass_flow", "heat.medium", minimum=0.0)
+            cp = ck.quantity(m, "cp", "specific_heat_capacity", "heat.medium", minimum=0.0)
+        else:
+            extra = [k for k in ("mass_flow", "cp") if isinstance(m, dict) and k in m]
+            if extra:
+                ck.fail("heat.medium", f": {', '.join(extra)} given but arrangement = \"uniform\" ignores them; "
+                        'remove them or write arrangement = "co-current".')
+    elif mode in ("isothermal", "adiabatic"):
+        extra = [k for k in ("overall_coefficient", "medium") if k in h]
         if extra:
             ck.fail("heat", f": {', '.join(extra)} given but mode = {mode!r} ignores them; remove them or "
-                    'choose mode = "constant-coolant" or "co-current".')
-    if mode == "constant-coolant" and ("coolant_mass_flow" in h or "coolant_cp" in h):
-        ck.fail("heat", ': coolant_mass_flow / coolant_cp need mode = "co-current".')
+                    'write mode = "exchange".')
     return Heat(mode=mode or "isothermal", overall_coefficient=0.0 if math.isnan(U) else U,
-                coolant_temperature=Tc, coolant_mass_flow=mc, coolant_cp=cpc)
+                arrangement=arrangement, medium_temperature=Tm, medium_mass_flow=mass_flow, medium_cp=cp)
 
 
 def _pressure_drop(ck, raw, bed):
@@ -558,10 +599,10 @@ def _check_species(ck, species, thermo, reactions, feed, design):
         for s, _ in r.orders:
             if s not in {n for n, _ in r.stoichiometry} and s not in known:
                 check(s, f"reactions.{j}.orders.{s}")
-        for m, a in enumerate(r.adsorption):
+        for m, a in enumerate(r.inhibition):
             for s, _ in a.exponents:
                 if s not in species:
-                    ck.fail(f"reactions.{j}.adsorption.{m}.species.{s}",
+                    ck.fail(f"reactions.{j}.inhibition.{m}.species.{s}",
                             f": {s!r} is neither in the feed nor in any reaction.")
         for s, o in r.orders:
             if s not in species:

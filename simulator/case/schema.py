@@ -11,11 +11,12 @@ from dataclasses import dataclass, field
 from typing import Literal
 
 EquationOfState = Literal["ideal-gas", "peng-robinson"]
-HeatMode = Literal["isothermal", "adiabatic", "constant-coolant", "co-current"]
+HeatMode = Literal["isothermal", "adiabatic", "exchange"]
+MediumArrangement = Literal["", "uniform", "co-current"]
 PressureDropModel = Literal["none", "ergun", "pipe-friction"]
-DrivingForce = Literal["concentration", "partial-pressure"]
-RateBasis = Literal["volume", "catalyst-mass"]
-RateLawName = Literal["power-law", "lhhw"]
+ActivityBasis = Literal["concentration", "partial-pressure"]
+RateBasis = Literal["reactor-volume", "catalyst-mass"]
+RateForm = Literal["power-law", "hougen-watson"]
 
 NAN = float("nan")
 
@@ -48,8 +49,8 @@ class Thermo:
 
 
 @dataclass(frozen=True)
-class Adsorption:
-    """One adsorption term K_m(T) * prod(a_i^beta_i) of an LHHW denominator."""
+class InhibitionTerm:
+    """One inhibition term K_m(T) * prod(a_i^beta_i) of a Hougen-Watson denominator."""
 
     exponents: tuple[tuple[str, float], ...]   # (species, beta)
     pre_exponential: float                     # [activity^-sum(beta)], SI
@@ -67,15 +68,15 @@ class Reaction:
     equation: str
     stoichiometry: tuple[tuple[str, float], ...]   # (species, nu) with nu < 0 for reactants
     reversible: bool
-    rate_law: RateLawName
-    pre_exponential: float          # SI units implied by orders, driving force and basis
+    form: RateForm
+    pre_exponential: float          # SI units implied by orders, activity basis and rate basis
     activation_energy: float        # [J/mol]
     temperature_exponent: float     # [-] k = A (T/1 K)^b exp(-E/(R T))
     orders: tuple[tuple[str, float], ...]
-    driving_force: DrivingForce
-    per: RateBasis
-    adsorption: tuple[Adsorption, ...] = ()
-    denominator_exponent: float = 1.0
+    in_terms_of: ActivityBasis
+    rate_basis: RateBasis
+    inhibition: tuple[InhibitionTerm, ...] = ()
+    inhibition_power: float = 1.0
     as_written: tuple[tuple[str, str], ...] = ()   # (key, text) for reports
 
 
@@ -105,11 +106,25 @@ class Bed:
 
 @dataclass(frozen=True)
 class Heat:
+    """Heat exchange through the wall.
+
+    ``mode = "exchange"`` couples the gas to a medium on the other side of the
+    wall (cooling or heating); ``arrangement`` says how the medium runs:
+    ``"uniform"`` (one temperature everywhere, e.g. a boiling or well-mixed
+    shell) or ``"co-current"`` (enters at z = 0 with ``medium_temperature``).
+    """
+
     mode: HeatMode
     overall_coefficient: float = 0.0     # U [W/(m^2*K)] referred to the tube inner wall
-    coolant_temperature: float = NAN     # [K] (inlet temperature for co-current)
-    coolant_mass_flow: float = NAN       # [kg/s] whole bundle (co-current)
-    coolant_cp: float = NAN              # [J/(kg*K)] (co-current)
+    arrangement: MediumArrangement = ""  # "" unless mode == "exchange"
+    medium_temperature: float = NAN      # [K] (inlet temperature for co-current)
+    medium_mass_flow: float = NAN        # [kg/s] whole bundle (co-current)
+    medium_cp: float = NAN               # [J/(kg*K)] (co-current)
+
+    @property
+    def exchange(self):
+        """True when the gas exchanges heat with a medium through the wall."""
+        return self.mode == "exchange"
 
 
 @dataclass(frozen=True)

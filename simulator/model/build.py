@@ -15,8 +15,8 @@ from simulator.thermo.critical import critical_constants
 from simulator.thermo.species_data import SpeciesData, build_species_data, mixture_viscosity
 from simulator.units import R
 
-HEAT_CODES = {"isothermal": K.HEAT_ISOTHERMAL, "adiabatic": K.HEAT_ADIABATIC,
-              "constant-coolant": K.HEAT_CONSTANT, "co-current": K.HEAT_COCURRENT}
+HEAT_CODES = {("isothermal", ""): K.HEAT_ISOTHERMAL, ("adiabatic", ""): K.HEAT_ADIABATIC,
+              ("exchange", "uniform"): K.HEAT_UNIFORM, ("exchange", "co-current"): K.HEAT_COCURRENT}
 DP_CODES = {"none": K.DP_NONE, "ergun": K.DP_ERGUN, "pipe-friction": K.DP_PIPE}
 FRICTION_CODES = {"churchill-1977": 0, "colebrook-1939": 1, "blasius-1913": 2, "laminar": 3}
 
@@ -91,7 +91,7 @@ def build_model(case, species=None, constant_moles=False):
     ordr = np.zeros((n, m))
     rexp = np.zeros((n, m))
     rx = np.zeros((m, K.N_RX))
-    kmax = max([len(r.adsorption) for r in case.reactions] + [1])
+    kmax = max([len(r.inhibition) for r in case.reactions] + [1])
     ads = np.zeros((m, kmax, 2 + n))
     for j, r in enumerate(case.reactions):
         for s, v in r.stoichiometry:
@@ -99,11 +99,11 @@ def build_model(case, species=None, constant_moles=False):
         for s, o in r.orders:
             ordr[index[s], j] = o
         rexp[:, j] = ordr[:, j] + nu[:, j] if r.reversible else 0.0
-        basis = case.bed.bulk_density if r.per == "catalyst-mass" else 1.0
+        basis = case.bed.bulk_density if r.rate_basis == "catalyst-mass" else 1.0
         rx[j] = [r.pre_exponential, r.temperature_exponent, r.activation_energy,
-                 1.0 if r.driving_force == "partial-pressure" else 0.0, basis,
-                 1.0 if r.reversible else 0.0, nu[:, j].sum(), r.denominator_exponent, len(r.adsorption)]
-        for t, a in enumerate(r.adsorption):
+                 1.0 if r.in_terms_of == "partial-pressure" else 0.0, basis,
+                 1.0 if r.reversible else 0.0, nu[:, j].sum(), r.inhibition_power, len(r.inhibition)]
+        for t, a in enumerate(r.inhibition):
             ads[j, t, 0] = a.pre_exponential
             ads[j, t, 1] = a.heat_of_adsorption
             for s, e in a.exponents:
@@ -123,8 +123,8 @@ def build_model(case, species=None, constant_moles=False):
     fp[K.F_AREA] = area
     fp[K.F_DIAM] = tube.inner_diameter
     fp[K.F_U] = heat.overall_coefficient
-    fp[K.F_TC] = heat.coolant_temperature
-    fp[K.F_MCP] = heat.coolant_mass_flow * heat.coolant_cp / tube.count if heat.mode == "co-current" else 1.0
+    fp[K.F_TC] = heat.medium_temperature
+    fp[K.F_MCP] = heat.medium_mass_flow * heat.medium_cp / tube.count if heat.arrangement == "co-current" else 1.0
     fp[K.F_ROUGH] = tube.roughness
     fp[K.F_G] = float(F0 @ species.molar_mass) / area
     fp[K.F_PMIN] = 1e-3 * case.feed.pressure
@@ -141,10 +141,10 @@ def build_model(case, species=None, constant_moles=False):
     if case.pressure_drop.model != "none":
         fp[K.F_MU0], fp[K.F_MUEXP], note = _viscosity_law(case, species, x0)
 
-    ip = np.array([n, m, HEAT_CODES[heat.mode], DP_CODES[case.pressure_drop.model],
+    ip = np.array([n, m, HEAT_CODES[heat.mode, heat.arrangement], DP_CODES[case.pressure_drop.model],
                    FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax,
                    1 if constant_moles else 0], dtype=np.int64)
-    Tc0 = heat.coolant_temperature if heat.mode in ("constant-coolant", "co-current") else case.feed.temperature
+    Tc0 = heat.medium_temperature if heat.exchange else case.feed.temperature
     y0 = np.concatenate([F0, [case.feed.temperature, case.feed.pressure, Tc0, 0.0]])
     Ft0 = F0.sum()
     cp_scale = Ft0 * 30.0 * max(case.feed.temperature, 300.0)

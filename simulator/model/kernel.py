@@ -9,7 +9,7 @@ State vector of one tube (see :mod:`simulator.model.state`)::
 
     y = [F_1 .. F_n, T, P, Tc, Q]
     F_i  molar flow of species i [mol/s]        T   gas temperature [K]
-    P    pressure [Pa]                           Tc  coolant temperature [K]
+    P    pressure [Pa]                           Tc  medium temperature [K]
     Q    heat added through the wall so far [W] (negative = removed)
 
 Balances (z = axial position [m], A_c = pi D^2/4)::
@@ -42,7 +42,7 @@ _laminar = njit(cache=True)(friction_laminar)
 
 # integer parameters ip[...]
 I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN = range(8)
-HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_CONSTANT, HEAT_COCURRENT = range(4)
+HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_UNIFORM, HEAT_COCURRENT = range(4)
 DP_NONE, DP_ERGUN, DP_PIPE = range(3)
 EOS_IDEAL, EOS_PR = range(2)
 # float parameters fp[...]
@@ -367,7 +367,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             if v != 0.0:
                 dydz[i] += v * r
     heat = ip[I_HEAT]
-    if heat == HEAT_CONSTANT or heat == HEAT_COCURRENT:
+    if heat == HEAT_UNIFORM or heat == HEAT_COCURRENT:
         qw = fp[F_U] * math.pi * fp[F_DIAM] * (Tc - T)
     else:
         qw = 0.0

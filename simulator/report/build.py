@@ -94,7 +94,7 @@ def default_command_line(case_path, out_dir, pdf=True):
 
 SWEEP_FIGURES = (
     ("runaway_map.svg", "Runaway map from the sweep",
-     "Hot-spot rise above the coolant over the swept grid (tubesim sweep, same output folder); thick line: "
+     "Hot-spot rise above the medium over the swept grid (tubesim sweep, same output folder); thick line: "
      "runaway boundary where the normalized sensitivity along the horizontal axis peaks (Morbidelli-Varma)."),
     ("hot_spot_sweep.svg", "Hot spot along the sweep",
      "Hot-spot temperature over the swept parameter (tubesim sweep, same output folder)."),

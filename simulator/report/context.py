@@ -38,10 +38,8 @@ from simulator.report.context_sections import (
 )
 from simulator.report.context_verdicts import (  # constants re-exported
     CLOSURE_OK,
-    COOLED,
-    DESIGN_CHANGE_ATTENTION,
+    DESIGN_CHANGE_REVIEW,
     RISK_LEVELS,
-    VERDICT_LEVELS,
     _exothermic,
     _screening_reason,
     _summary,
@@ -78,7 +76,7 @@ def _references(case, result, assumptions, screening):
         keys.append("levenspiel1999")             # expansion factor of the constant-moles measure
         if assumptions.get("assumptions", {}).get("ideal_gas", {}).get("verdict") in ("holds", "fails"):
             keys.append("peng_robinson1976")      # real-gas check of the ideal-gas assumption
-    if _exothermic(result) and case.heat.mode in COOLED:
+    if _exothermic(result) and case.heat.exchange:
         keys.append("van_welsenaere_froment1970")  # R T^2 / E scale of the hot-spot verdict
     if screening is not None:
         keys += list(screening.get("references", []))

@@ -104,12 +104,55 @@ def _change(percent):
 
 def _pretty_rule(text):
     """Screening rule text with parameter keys in words."""
-    for key, words in (("coolant_temperature_K", "coolant temperature"), ("inlet_temperature_K", "inlet temperature"),
-                       ("feed_mole_fraction", "feed mole fraction"), ("coolant_temperature", "coolant temperature"),
+    for key, words in (("medium_temperature_K", "medium temperature"), ("inlet_temperature_K", "inlet temperature"),
+                       ("feed_mole_fraction", "feed mole fraction"), ("medium_temperature", "medium temperature"),
                        ("inlet_temperature", "inlet temperature"), ("overall_coefficient", "wall coefficient U"),
                        ("mass_flow", "feed flow"), ("Tc^2", "Tc²")):
         text = text.replace(key, words)
     return text
+
+
+#: Case paths a sweep may vary -> words with the SI unit of the stored values.
+_PATH_WORDS = {
+    "heat.medium.temperature": "Medium temperature [K]",
+    "heat.medium.mass_flow": "Medium mass flow [kg/s]",
+    "heat.medium.cp": "Medium heat capacity [J/(kg·K)]",
+    "heat.overall_coefficient": "Overall heat-transfer coefficient U [W/(m²·K)]",
+    "feed.temperature": "Feed temperature [K]",
+    "feed.pressure": "Feed pressure [Pa]",
+    "feed.molar_flow": "Feed molar flow [mol/s]",
+    "feed.mass_flow": "Feed mass flow [kg/s]",
+    "feed.volumetric_flow": "Feed volumetric flow [m³/s]",
+    "tube.count": "Tube count [-]",
+    "tube.length": "Tube length [m]",
+    "tube.inner_diameter": "Tube inner diameter [m]",
+    "bed.particle_diameter": "Particle diameter [m]",
+    "bed.void_fraction": "Bed void fraction [-]",
+    "bed.bulk_density": "Bed bulk density [kg/m³]",
+}
+_REACTION_WORDS = {"pre_exponential": ("Pre-exponential factor", "SI units"),
+                   "activation_energy": ("Activation energy", "J/mol"),
+                   "temperature_exponent": ("Temperature exponent", "-")}
+
+
+def path_label(path):
+    """Axis words with unit for a case path, never the raw dotted path.
+
+    >>> path_label("heat.medium.temperature"), path_label("feed.mole_fractions.OX")
+    ('Medium temperature [K]', 'Feed mole fraction of OX [-]')
+    >>> path_label("reactions.0.activation_energy")
+    'Activation energy of R1 [J/mol]'
+    """
+    if path in _PATH_WORDS:
+        return _PATH_WORDS[path]
+    parts = path.split(".")
+    if len(parts) == 3 and parts[:2] == ["feed", "mole_fractions"]:
+        return f"Feed mole fraction of {parts[2]} [-]"
+    if len(parts) == 3 and parts[0] == "reactions" and parts[1].isdigit() and parts[2] in _REACTION_WORDS:
+        words, unit = _REACTION_WORDS[parts[2]]
+        return f"{words} of R{int(parts[1]) + 1} [{unit}]"
+    words = " ".join(p.replace("_", " ") for p in parts if not p.isdigit())
+    return words[:1].upper() + words[1:] + " [SI units]"
 
 
 def _pct(fraction, decimals=1, sign=True):

@@ -2,7 +2,7 @@
 
 Every value of the case file is shown as written next to its SI value and unit
 (:data:`FIELD_UNITS`); the species table (data source, molar mass, stated
-temperature range) and, per reaction, its rate law in words, its parameters
+temperature range) and, per reaction, its rate form in words, its parameters
 with the composite units of pre-exponential factors and the computed heat of
 reaction.
 """
@@ -26,9 +26,9 @@ FIELD_UNITS = {
     "bed.particle_diameter": ("length", "m"),
     "bed.bulk_density": ("density", "kg/m³"),
     "heat.overall_coefficient": ("heat_transfer_coefficient", "W/(m²·K)"),
-    "heat.coolant_temperature": ("temperature", "K"),
-    "heat.coolant_mass_flow": ("mass_flow", "kg/s"),
-    "heat.coolant_cp": ("specific_heat_capacity", "J/(kg·K)"),
+    "heat.medium.temperature": ("temperature", "K"),
+    "heat.medium.mass_flow": ("mass_flow", "kg/s"),
+    "heat.medium.cp": ("specific_heat_capacity", "J/(kg·K)"),
     "pressure_drop.viscosity": ("viscosity", "Pa·s"),
     "design.temperature_limit": ("temperature", "K"),
     "design.max_pressure_drop": ("pressure", "Pa"),
@@ -50,22 +50,22 @@ FIELD_UNITS = {
 def _pre_exponential_unit(reaction):
     """SI unit (pint expression, display text) of a reaction's pre-exponential factor."""
     n = sum(o for _, o in reaction.orders)
-    rate = "mol/(m**3*s)" if reaction.per == "volume" else "mol/(kg*s)"
-    activity = "mol/m**3" if reaction.driving_force == "concentration" else "Pa"
+    rate = "mol/(m**3*s)" if reaction.rate_basis == "reactor-volume" else "mol/(kg*s)"
+    activity = "mol/m**3" if reaction.in_terms_of == "concentration" else "Pa"
     expression = f"({rate}) / ({activity})**({n!r})"
     ureg = registry()
     simplified = ureg.Quantity(1.0, expression)
-    if reaction.driving_force == "concentration":
+    if reaction.in_terms_of == "concentration":
         simplified = simplified.to_base_units()
     return expression, unit_text(simplified.units)
 
 
-def _adsorption_unit(reaction, exponents):
-    activity = "mol/m**3" if reaction.driving_force == "concentration" else "Pa"
+def _inhibition_unit(reaction, exponents):
+    activity = "mol/m**3" if reaction.in_terms_of == "concentration" else "Pa"
     total = sum(float(v) for v in exponents.values() if isinstance(v, (int, float)))
     expression = f"1/({activity})**({total!r})"
     quantity = registry().Quantity(1.0, expression)
-    if reaction.driving_force == "concentration":
+    if reaction.in_terms_of == "concentration":
         quantity = quantity.to_base_units()
     return expression, unit_text(quantity.units)
 
@@ -157,18 +157,19 @@ def _heat_of_reaction(reaction, data, T):
     return sum(nu * h_RT(data.nasa7[index[s]], T) * R * T for s, nu in reaction.stoichiometry)
 
 
-def _rate_law_text(reaction):
-    law = "LHHW (Langmuir-Hinshelwood-Hougen-Watson)" if reaction.rate_law == "lhhw" else "Power law"
-    basis = ("per unit tube volume, r in mol/(m³·s)" if reaction.per == "volume"
+def _rate_form_text(reaction):
+    law = "Hougen-Watson (inhibition terms in the denominator)" if reaction.form == "hougen-watson" \
+        else "Power law"
+    basis = ("per unit reactor volume, r in mol/(m³·s)" if reaction.rate_basis == "reactor-volume"
              else "per unit catalyst mass, r in mol/(kg·s)")
-    activity = ("concentrations c_i in mol/m³" if reaction.driving_force == "concentration"
+    activity = ("concentrations c_i in mol/m³" if reaction.in_terms_of == "concentration"
                 else "partial pressures p_i in Pa")
-    orders = " · ".join(f"{'c' if reaction.driving_force == 'concentration' else 'p'}_{s}^{o:g}"
+    orders = " · ".join(f"{'c' if reaction.in_terms_of == 'concentration' else 'p'}_{s}^{o:g}"
                         for s, o in reaction.orders) or "1"
     k = "k = A · (T/1 K)^b · exp(-E/(R·T))" if reaction.temperature_exponent else "k = A · exp(-E/(R·T))"
-    text = f"{law}, {basis}; driving force: {activity}; r = k(T) · {orders}"
-    if reaction.rate_law == "lhhw":
-        text += f" / (1 + Σ K_m(T) · Π a_i^β)^{reaction.denominator_exponent:g}"
+    text = f"{law}, {basis}; in terms of {activity}; r = k(T) · {orders}"
+    if reaction.form == "hougen-watson":
+        text += f" / (1 + Σ K_m(T) · Π a_i^β)^{reaction.inhibition_power:g}"
     text += f"; {k}; "
     text += ("reversible: reverse rate from the equilibrium constant of the species data."
              if reaction.reversible else "irreversible.")
@@ -187,10 +188,10 @@ def _reactions(case, data):
                 si = _si_of(value, expression)
                 params.append({"name": path, "as_written": _as_written(value),
                                "si_value": _si(si) if si is not None else _DASH, "si_unit": shown})
-            elif re.fullmatch(r"adsorption\.\d+\.pre_exponential", path):
+            elif re.fullmatch(r"inhibition\.\d+\.pre_exponential", path):
                 m = int(path.split(".")[1])
-                exps = raw["adsorption"][m].get("species", {})
-                expression, shown = _adsorption_unit(reaction, exps if isinstance(exps, dict) else {})
+                exps = raw["inhibition"][m].get("species", {})
+                expression, shown = _inhibition_unit(reaction, exps if isinstance(exps, dict) else {})
                 si = _si_of(value, expression)
                 params.append({"name": path, "as_written": _as_written(value),
                                "si_value": _si(si) if si is not None else _DASH, "si_unit": shown})
@@ -200,7 +201,8 @@ def _reactions(case, data):
                          ("heat of reaction at 298.15 K (computed)", 298.15)):
             dH = _heat_of_reaction(reaction, data, T)
             params.append({"name": label, "as_written": _DASH, "si_value": _si(dH), "si_unit": "J/mol"})
-        out.append({"equation": reaction.equation, "rate_law": _rate_law_text(reaction), "parameters": params})
+        out.append({"label": f"R{j + 1} = reactions[{j}]", "equation": reaction.equation,
+                    "rate_form": _rate_form_text(reaction), "parameters": params})
     return out
 
 

@@ -2,7 +2,7 @@
 
 Each function returns one section dict of the schema in
 :mod:`simulator.report.html`: the profile plots with their captions, the
-textbook-against-full-model comparison and the assumption verdicts, the runaway
+ideal-design-against-full-model comparison and the assumption verdicts, the runaway
 screening (dimensionless groups, criteria, critical values and margins,
 sensitivities and their plots) and the numerics (run status, events,
 conservation closure, solver statistics). Verdict levels follow the rules of
@@ -11,21 +11,19 @@ conservation closure, solver statistics). Verdict levels follow the rules of
 import numpy as np
 
 from simulator.report.context_format import _DASH, _change, _finite, _pct, fixed, fmt
+from simulator.verdicts import criterion_level
 from simulator.report.context_verdicts import (
     _ASSUMPTION_LABELS,
     CLOSURE_OK,
-    COOLED,
-    VERDICT_LEVELS,
     _assumption_flag,
     _basis_text,
     _design_quantity,
-    _exothermic,
     _runaway_flag,
     _screening_reason,
 )
 
 _PARAMETER_LABELS = {"feed_mole_fraction": "feed mole fraction of {key}",
-                     "coolant_temperature": "coolant temperature", "inlet_temperature": "inlet temperature",
+                     "medium_temperature": "medium temperature", "inlet_temperature": "inlet temperature",
                      "overall_coefficient": "wall heat-transfer coefficient U", "mass_flow": "feed mass flow"}
 
 
@@ -35,20 +33,19 @@ def _profiles(case, result):
 
     z = result.z
     key = case.design.key_species
-    cooled = case.heat.mode in COOLED
+    cooled = case.heat.exchange
     hot = result.hot_spot
     target = result.design.get("length_m") if result.design.get("reached") else None
     limit = case.design.temperature_limit if _finite(case.design.temperature_limit) else None
-    heating = cooled and float(np.mean(result.Tc)) > case.feed.temperature and not _exothermic(result)
-    medium = "Heating-medium temperature" if heating else "Coolant temperature"
+    medium = "Medium temperature"
     uri = plots.profile_temperature_plot(
-        z, result.T, coolant_T=result.Tc if cooled else None,
+        z, result.T, medium_T=result.Tc if cooled else None,
         hot_spot=(hot["position_m"], hot["temperature_K"]), temperature_limit=limit,
-        target_position=target, coolant_label=medium)
+        target_position=target, medium_label=medium)
     parts = [f"Process (bed) temperature along the tube; star: highest temperature {fixed(hot['temperature_K'])} K "
              f"at z = {fmt(hot['position_m'], 3)} m ({hot['located_by']})."]
     if cooled:
-        parts.append(f"{medium} ({case.heat.mode}).")
+        parts.append(f"{medium}: the medium on the other side of the wall ({case.heat.arrangement}).")
     parts.append(f"Dashed horizontal line: temperature limit {fixed(limit)} K." if limit is not None
                  else "No temperature limit is given (design.temperature_limit).")
     if target is not None:
@@ -83,21 +80,21 @@ def _assumptions_block(case, assumptions):
                 "paragraphs": [], "flags": [], "tables": [], "plots": []}
     quantity, unit = _design_quantity(assumptions)
     key = assumptions["design_quantity"]
-    t, f = assumptions["textbook"], assumptions["full"]
+    t, f = assumptions["ideal"], assumptions["full"]
     change = assumptions.get("design_change_percent")
     paragraphs = [
-        "Textbook model: the same kinetics and mole change, but isothermal at the feed temperature, "
+        "Ideal design: the same kinetics and mole change, but isothermal at the feed temperature, "
         "without pressure drop and with an ideal gas. Full model: the coupled mole, energy and pressure "
         "balances of the case. Attribution: each assumption is applied alone to the full model and the "
         f"change of the {quantity} needed for the target conversion is reported (variant against full model).",
     ]
     if _finite(change):
-        paragraphs.append(f"Overall: the textbook design needs {fmt(t[key], 4)} {unit} of {quantity}, the full "
-                          f"model {fmt(f[key], 4)} {unit}: the textbook is {fixed(change, 1, sign=True)} % off.")
+        paragraphs.append(f"Overall: the ideal design needs {fmt(t[key], 4)} {unit} of {quantity}, the full "
+                          f"model {fmt(f[key], 4)} {unit}: the ideal design is {fixed(change, 1, sign=True)} % off.")
     else:
         why = ("no target conversion is given (design.target_conversion)"
                if assumptions.get("target_conversion") is None else assumptions.get("design_change_basis"))
-        paragraphs.append(f"Overall: no design change can be computed: {why}. Outlet conversions: textbook "
+        paragraphs.append(f"Overall: no design change can be computed: {why}. Outlet conversions: ideal "
                           f"{fixed(t['outlet_conversion'], 4)}, full {fixed(f['outlet_conversion'], 4)}.")
     entries = assumptions.get("assumptions", {})
     changes = [e.get("design_change_percent") for e in entries.values()]
@@ -105,8 +102,8 @@ def _assumptions_block(case, assumptions):
         paragraphs.append(f"The single-assumption changes add up to {fixed(sum(changes), 1, sign=True)} % against "
                           f"{fixed(change, 1, sign=True)} % for all together; the difference is their interaction.")
     comparison = {
-        "caption": "Textbook against full model",
-        "columns": ["Quantity", "Textbook", "Full model"],
+        "caption": "Ideal design against full model",
+        "columns": ["Quantity", "Ideal design", "Full model"],
         "rows": [["Length to the target [m]", fmt(t["length_m"], 4, "not reached"),
                   fmt(f["length_m"], 4, "not reached")],
                  [f"{quantity.capitalize()} to the target [{unit}]", fmt(t[key], 4, "not reached"),
@@ -144,8 +141,8 @@ def _sensitivity_plots(case, screening):
     key = case.design.key_species
     out = []
     for name, crit_key, xlabel, title in (
-            ("coolant_temperature", "coolant_temperature_K", "Coolant temperature [K]",
-             "Hot spot against coolant temperature"),
+            ("medium_temperature", "medium_temperature_K", "Medium temperature [K]",
+             "Hot spot against medium temperature"),
             ("feed_mole_fraction", "feed_mole_fraction", f"Feed mole fraction of {key} [-]",
              "Hot spot against feed fraction")):
         points = sorted({(float(v), float(T)) for p, v, T in log if p == name})
@@ -174,7 +171,7 @@ def _criteria_table(case, screening):
 
     def verdict(entry):
         v = entry.get("verdict", "undecided")
-        return {"level": VERDICT_LEVELS.get(v, "attention"), "text": v}
+        return {"level": entry.get("level") or criterion_level(v), "text": v}
 
     def critical_fraction(entry):
         return fmt(entry.get("critical_feed_mole_fraction"), 4, "not found")
@@ -225,7 +222,7 @@ def _screening_block(case, result, screening, reason):
     paragraphs = [
         f"Risk: {screening.get('risk', 'n/a').upper()} (the rule applied is in the verdict below).",
         f"The groups belong to the reaction that releases the most heat at the feed composition and the "
-        f"coolant temperature ({g.get('reaction', 'n/a')}). Screening runs use rtol {fmt(num.get('rtol'), 2)} "
+        f"medium temperature ({g.get('reaction', 'n/a')}). Screening runs use rtol {fmt(num.get('rtol'), 2)} "
         f"and locate the hot spot at {fixed(hot.get('temperature_K'), 2)} K, z = {fmt(hot.get('position_m'), 4)} m "
         f"({screening.get('solves', 'n/a')} solves in all).",
         f"Definitions: {g.get('definitions', '')}.",
@@ -258,7 +255,7 @@ def _screening_block(case, result, screening, reason):
             margin, rel = _DASH, _DASH
         margin_rows.append([label, show(entry.get("operating_value")) + unit, critical, margin, rel,
                             fmt(entry.get("s_max"), 3),
-                            {"level": VERDICT_LEVELS.get(entry.get("verdict"), "attention"),
+                            {"level": entry.get("level") or criterion_level(entry.get("verdict")),
                              "text": entry.get("verdict", "")}])
     margins = {"caption": "Critical values and margins (Morbidelli-Varma: maximum of the normalized sensitivity)",
                "columns": ["Parameter", "Design", "Critical", "Margin", "Relative margin", "max |s|", "Verdict"],
@@ -268,7 +265,7 @@ def _screening_block(case, result, screening, reason):
     for name, s in screening.get("sensitivity", {}).items():
         label = _PARAMETER_LABELS.get(name, name).format(key=key)
         x = excess.get(name)
-        temperature = name in ("inlet_temperature", "coolant_temperature")
+        temperature = name in ("inlet_temperature", "medium_temperature")
         big = _finite(x) and (x > 1.0 if temperature else abs(x) > 1.0)
         if not _finite(s):
             reading = "not computed"
@@ -277,9 +274,9 @@ def _screening_block(case, result, screening, reason):
         else:
             reading = "|s| > 1: sensitive" if big else "|s| ≤ 1"
         sens_rows.append([label, fmt(s, 3), fmt(x, 3) if temperature else _DASH,
-                          {"level": "attention" if big else "ok", "text": reading}])
+                          {"level": "review" if big else "acceptable", "text": reading}])
     sensitivity = {"caption": "Normalized sensitivity of the hot spot at the design point, s = (φ/T*)·dT*/dφ; for "
-                              "the inlet and coolant temperatures a hot spot that just follows them (as without "
+                              "the inlet and medium temperatures a hot spot that just follows them (as without "
                               "reaction) has s = φ/T*, so only the excess counts",
                    "columns": ["Parameter φ", "s", "s − φ/T*", "Reading"], "rows": sens_rows}
     flag = _runaway_flag(case, result, screening, None)
@@ -305,7 +302,7 @@ def _numerics_block(case, result, screening):
                         ("energy_relative", "Energy (H_out - H_in - Q), relative")):
         value = result.closure.get(name)
         ok = _finite(value) and abs(float(value)) <= CLOSURE_OK
-        closure_rows.append([label, fmt(value, 3), {"level": "ok" if ok else "attention",
+        closure_rows.append([label, fmt(value, 3), {"level": "acceptable" if ok else "review",
                                                     "text": f"≤ {fmt(CLOSURE_OK, 1)}" if ok
                                                     else f"> {fmt(CLOSURE_OK, 1)}"}])
     z_dev = s.get("max_compressibility_deviation")

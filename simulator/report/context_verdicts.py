@@ -9,54 +9,47 @@ The flag rules below are shared with the detailed sections
 Verdict rules (documented choices; thresholds are common practice, no source)
 ------------------------------------------------------------------------------
 Temperature scale: :math:`\Delta T_s = R T_r^2 / E`, with :math:`T_r` the
-coolant temperature of a cooled tube (else the feed temperature) and :math:`E`
+medium temperature of a cooled tube (else the feed temperature) and :math:`E`
 the largest activation energy of the case. A temperature change of
 :math:`\Delta T_s` changes the rate constant e-fold; Van Welsenaere and
 Froment (1970) place the onset of runaway where the hot spot exceeds the
-coolant by about this amount (extremum of the maxima curve).
+medium by about this amount (extremum of the maxima curve).
 
 *Hot spot* (exothermic case, i.e. positive adiabatic rise)
-    ``danger`` if the run stopped at ``design.temperature_limit``, the hot
-    spot reached it, or the screening risk is "runaway"; ``attention`` if the
-    hot spot lies more than :math:`\Delta T_s` above the coolant (cooled tube),
+    ``unacceptable`` if the run stopped at ``design.temperature_limit``, the hot
+    spot reached it, or the screening risk is "runaway"; ``review`` if the
+    hot spot lies more than :math:`\Delta T_s` above the medium (cooled tube),
     within :math:`\Delta T_s` of the temperature limit, or an adiabatic tube
-    has no temperature limit; ``ok`` otherwise. An endothermic or isothermal
-    case has no reaction hot spot: ``ok`` unless the temperature limit was
+    has no temperature limit; ``acceptable`` otherwise. An endothermic or isothermal
+    case has no reaction hot spot: ``acceptable`` unless the temperature limit was
     reached.
 *Runaway risk*
-    From ``screening["risk"]``: "adequate margin" -> ``ok``, "sensitive" ->
-    ``attention``, "runaway" -> ``danger``. Not screened: ``ok`` when there is
-    no exothermic path (nothing to run away), ``attention`` when an exothermic
+    From ``screening["risk"]``: "adequate margin" -> ``acceptable``, "sensitive" ->
+    ``review``, "runaway" -> ``unacceptable``. Not screened: ``acceptable`` when there is
+    no exothermic path (nothing to run away), ``review`` when an exothermic
     case could not be screened (not a cooled tube, or not run).
 *Each assumption* (isothermal, isobaric, ideal gas, constant moles)
-    "holds" -> ``ok``, unless applying it alone changes the design quantity
-    by more than :data:`DESIGN_CHANGE_ATTENTION` (then ``attention``: it holds
-    by its own measure but still moves the design); "fails" -> ``attention``
-    with its design change; "unknown" -> ``attention`` with the reason.
-*Target conversion* (when given): reached -> ``ok``; not reached in the
-    tube -> ``attention``.
+    "holds" -> ``acceptable``, unless applying it alone changes the design quantity
+    by more than :data:`DESIGN_CHANGE_REVIEW` (then ``review``: it holds
+    by its own measure but still moves the design); "fails" -> ``review``
+    with its design change; "unknown" -> ``review`` with the reason.
+*Target conversion* (when given): reached -> ``acceptable``; not reached in the
+    tube -> ``review``.
 *Pressure drop* (when ``design.max_pressure_drop`` is given): within ->
-    ``ok``; above -> ``danger``.
-*Run*: a run stopped before the end of the tube -> ``danger``.
-*Conservation closure*: relative error up to :data:`CLOSURE_OK` -> ``ok``,
-    else ``attention``.
+    ``acceptable``; above -> ``unacceptable``.
+*Run*: a run stopped before the end of the tube -> ``unacceptable``.
+*Conservation closure*: relative error up to :data:`CLOSURE_OK` -> ``acceptable``,
+    else ``review``.
 """
 import math
 
-import numpy as np
-
 from simulator.report.context_format import _change, _finite, _pct, _pretty_rule, fixed, fmt
 from simulator.units import R
+from simulator.verdicts import DESIGN_CHANGE_REVIEW, RISK_LEVELS, assumption_level, risk_level  # noqa: F401 (re-exported)
 
-#: |design change| above which an assumption that "holds" is still flagged, [-]
-#: (5 %, common practice, no source).
-DESIGN_CHANGE_ATTENTION = 0.05
 #: Relative conservation error accepted without comment, [-] (common practice, no source).
 CLOSURE_OK = 1e-6
 
-RISK_LEVELS = {"adequate margin": "ok", "sensitive": "attention", "runaway": "danger"}
-VERDICT_LEVELS = {"safe": "ok", "runaway": "danger", "undecided": "attention"}
-COOLED = ("constant-coolant", "co-current")
 
 _ASSUMPTION_LABELS = {"isothermal": "Isothermal", "isobaric": "Isobaric", "ideal_gas": "Ideal gas",
                       "constant_moles": "Constant moles"}
@@ -64,7 +57,7 @@ _ASSUMPTION_LABELS = {"isothermal": "Isothermal", "isobaric": "Isobaric", "ideal
 
 def _temperature_scale(case):
     """R T_r^2 / E_max [K] (inf without an activated reaction) and T_r [K]."""
-    T_ref = case.heat.coolant_temperature if case.heat.mode in COOLED else case.feed.temperature
+    T_ref = case.heat.medium_temperature if case.heat.exchange else case.feed.temperature
     E = max((r.activation_energy for r in case.reactions), default=0.0)
     return (R * T_ref ** 2 / E if E > 0 else math.inf), T_ref
 
@@ -82,28 +75,28 @@ def _hot_spot_flag(case, result, screening):
     where = f"{fixed(T_hot)} K at z = {fmt(z_hot, 3)} m"
     stopped = "temperature_limit" in result.events
     if stopped or (_finite(limit) and T_hot >= limit):
-        return {"level": "danger", "label": "Hot spot",
+        return {"level": "unacceptable", "label": "Hot spot",
                 "text": f"The temperature limit {fixed(limit)} K is reached at z = {fmt(z_hot, 3)} m; the run "
                         f"stopped there and the true maximum is higher. The design as given is not acceptable."}
     if screening is not None and screening.get("risk") == "runaway":
-        return {"level": "danger", "label": "Hot spot",
+        return {"level": "unacceptable", "label": "Hot spot",
                 "text": f"Hot spot {where}, but the operating point lies on the runaway side of the screening "
                         f"boundary: small changes can move it by hundreds of kelvin."}
     near_limit = _finite(limit) and limit - T_hot < scale
     limit_text = (f"; {fixed(limit - T_hot)} K below the temperature limit {fixed(limit)} K"
                   if _finite(limit) else "")
     if case.heat.mode == "isothermal":
-        return {"level": "attention" if near_limit else "ok", "label": "Hot spot",
+        return {"level": "review" if near_limit else "acceptable", "label": "Hot spot",
                 "text": f"No hot spot by construction: the case is isothermal at {fixed(case.feed.temperature)} K "
                         f"(heat.mode = \"isothermal\"); the wall duty that holds it is "
                         f"{fmt(result.Q[-1] / 1e3, 4)} kW{limit_text}."}
     if not _exothermic(result):
-        return {"level": "attention" if near_limit else "ok", "label": "Hot spot",
+        return {"level": "review" if near_limit else "acceptable", "label": "Hot spot",
                 "text": f"No reaction hot spot (the reaction path is not exothermic); the highest temperature "
                         f"is {where} ({hot['located_by']}){limit_text}."}
     scale_text = f"R·T²/E = {fixed(scale)} K at {fixed(T_ref)} K"
-    if case.heat.mode in COOLED:
-        rise = hot.get("rise_above_coolant_K")
+    if case.heat.exchange:
+        rise = hot.get("rise_above_medium_K")
         rise = T_hot - T_ref if rise is None else rise
         T_m = None
         if screening is not None:
@@ -118,25 +111,25 @@ def _hot_spot_flag(case, result, screening):
         close = _finite(T_m) and not beyond and T_m - T_hot < 0.25 * scale
         if beyond or near_limit or close:
             if beyond:
-                why = f"it lies {fixed(rise)} K above the coolant and exceeds {criterion}"
+                why = f"it lies {fixed(rise)} K above the medium and exceeds {criterion}"
             elif close:
-                why = (f"it lies {fixed(rise)} K above the coolant, only {fixed(T_m - T_hot)} K below {criterion}; "
+                why = (f"it lies {fixed(rise)} K above the medium, only {fixed(T_m - T_hot)} K below {criterion}; "
                        f"closer than a quarter of {scale_text}")
             else:
                 why = f"it is within {scale_text} of the temperature limit"
-            return {"level": "attention", "label": "Hot spot",
+            return {"level": "review", "label": "Hot spot",
                     "text": f"Hot spot {where}: {why}{limit_text}."}
         see = (" How sensitive it is to the operating conditions is judged under Runaway risk."
                if screening is not None and screening.get("risk") != "adequate margin" else "")
         below = (f"below T_m = {fixed(T_m)} K of the maxima curve" if _finite(T_m) else f"below {scale_text}")
-        return {"level": "ok", "label": "Hot spot",
-                "text": f"Hot spot {where}, {fixed(rise)} K above the coolant, {below}{limit_text}.{see}"}
+        return {"level": "acceptable", "label": "Hot spot",
+                "text": f"Hot spot {where}, {fixed(rise)} K above the medium, {below}{limit_text}.{see}"}
     # adiabatic
     if not _finite(limit):
-        return {"level": "attention", "label": "Hot spot",
+        return {"level": "review", "label": "Hot spot",
                 "text": f"Adiabatic tube: the highest temperature is {where}, {fixed(hot['rise_above_feed_K'])} K "
                         f"above the feed; no design.temperature_limit is given to judge it against."}
-    return {"level": "attention" if near_limit else "ok", "label": "Hot spot",
+    return {"level": "review" if near_limit else "acceptable", "label": "Hot spot",
             "text": f"Adiabatic tube: the highest temperature is {where}{limit_text}."}
 
 
@@ -153,20 +146,20 @@ def _screening_reason(case, result, reason):
     if not _exothermic(result):
         return (f"no exothermic path for {case.design.key_species} ({_rise_text(result)}): runaway "
                 f"screening does not apply.")
-    if case.heat.mode not in COOLED:
-        return (f"heat.mode = \"{case.heat.mode}\": runaway screening needs a cooled tube "
-                f"(\"constant-coolant\" or \"co-current\").")
+    if not case.heat.exchange:
+        return (f"heat.mode = \"{case.heat.mode}\": runaway screening needs a tube cooled through its wall "
+                f"(heat.mode = \"exchange\" with a [heat.medium]).")
     return reason or "the screening was not run for this report."
 
 
 def _margins_text(screening, key):
     parts = []
     crit = screening.get("critical", {})
-    for name, unit in (("coolant_temperature_K", "K"), ("feed_mole_fraction", ""), ("inlet_temperature_K", "K")):
+    for name, unit in (("medium_temperature_K", "K"), ("feed_mole_fraction", ""), ("inlet_temperature_K", "K")):
         entry = crit.get(name)
         if not entry or not entry.get("found"):
             continue
-        label = {"coolant_temperature_K": "coolant temperature", "inlet_temperature_K": "inlet temperature",
+        label = {"medium_temperature_K": "medium temperature", "inlet_temperature_K": "inlet temperature",
                  "feed_mole_fraction": f"feed fraction of {key}"}[name]
         if unit:
             parts.append(f"critical {label} {fixed(entry['value'])} K (margin {fixed(entry['margin'], sign=True)} K)")
@@ -179,16 +172,16 @@ def _runaway_flag(case, result, screening, reason):
     if screening is None:
         text = _screening_reason(case, result, reason)
         if not _exothermic(result):
-            return {"level": "ok", "label": "Runaway risk", "text": f"Not applicable: {text}"}
-        return {"level": "attention", "label": "Runaway risk",
+            return {"level": "acceptable", "label": "Runaway risk", "text": f"Not applicable: {text}"}
+        return {"level": "review", "label": "Runaway risk",
                 "text": f"Not screened although the reaction is exothermic ({_rise_text(result)}): {text} "
                         f"Check the temperature control separately."}
     risk = screening.get("risk", "")
-    level = RISK_LEVELS.get(risk, "attention")
+    level = screening.get("risk_level") or risk_level(risk)
     margins = _margins_text(screening, case.design.key_species)
-    sentence = {"ok": "Adequate margin to the runaway boundary",
-                "attention": "Parametrically sensitive: the hot spot reacts strongly to small changes",
-                "danger": "Runaway: the operating point is on the runaway side"}[level]
+    sentence = {"acceptable": "Adequate margin to the runaway boundary",
+                "review": "Parametrically sensitive: the hot spot reacts strongly to small changes",
+                "unacceptable": "Runaway: the operating point is on the runaway side"}[level]
     text = (f"{sentence}" + (f"; {margins}" if margins else "")
             + f". Rule applied: {_pretty_rule(screening.get('risk_rule', ''))}.")
     return {"level": level, "label": "Runaway risk", "text": text}
@@ -217,19 +210,21 @@ def _assumption_flag(name, entry, case, assumptions):
     effect = (f"applying it alone changes the {quantity} to the target by {_change(change)}"
               if _finite(change) else f"effect on the design: {_basis_text(entry, assumptions)}")
     verdict = entry.get("verdict")
+    # the level is the one assumptions.json carries (one rule: simulator.verdicts.assumption_level)
+    level = entry.get("level") or assumption_level(verdict, change)
     if verdict == "unknown":
-        return {"level": "attention", "label": label,
+        return {"level": level, "label": label,
                 "text": f"Not checked: {entry.get('design_change_basis', 'no data')}."}
     numbers = f"{measure} = {fmt(value, 3)}{unit}, threshold {fmt(threshold, 3)}{unit}"
     if verdict == "holds":
         if name == "isothermal" and case.heat.mode == "isothermal":
-            return {"level": "ok", "label": label,
+            return {"level": level, "label": label,
                     "text": "Holds by construction: the case itself is isothermal (heat.mode = \"isothermal\")."}
-        if _finite(change) and abs(change) > 100.0 * DESIGN_CHANGE_ATTENTION:
-            return {"level": "attention", "label": label,
+        if level != "acceptable":
+            return {"level": level, "label": label,
                     "text": f"Holds by its measure ({numbers}), but {effect}."}
-        return {"level": "ok", "label": label, "text": f"Holds: {numbers}; {effect}."}
-    return {"level": "attention", "label": label, "text": f"Fails: {numbers}; {effect}."}
+        return {"level": level, "label": label, "text": f"Holds: {numbers}; {effect}."}
+    return {"level": level, "label": label, "text": f"Fails: {numbers}; {effect}."}
 
 
 def _summary(case, result, assumptions, screening, screening_reason):
@@ -259,10 +254,8 @@ def _summary(case, result, assumptions, screening, screening_reason):
          "unit": "K"},
         {"label": f"{name}: position", "value": fmt(hot["position_m"], 3), "unit": "m"},
     ]
-    if hot.get("rise_above_coolant_K") is not None:
-        medium = "coolant" if _exothermic(result) or float(np.mean(result.Tc)) <= case.feed.temperature \
-            else "heating medium"
-        numbers.append({"label": f"{name}: above the {medium}", "value": fixed(hot["rise_above_coolant_K"], sign=True),
+    if hot.get("rise_above_medium_K") is not None:
+        numbers.append({"label": f"{name}: above the medium", "value": fixed(hot["rise_above_medium_K"], sign=True),
                         "unit": "K"})
     else:
         numbers.append({"label": f"{name}: above the feed", "value": fixed(hot["rise_above_feed_K"], sign=True),
@@ -284,35 +277,35 @@ def _summary(case, result, assumptions, screening, screening_reason):
                         "value": "not defined", "unit": ""})
         numbers[-1]["label"] += f": {note}"
     numbers.append({"label": "Outlet temperature", "value": fixed(outlet["temperature_K"]), "unit": "K"})
-    if case.heat.mode in COOLED or case.heat.mode == "isothermal":
+    if case.heat.exchange or case.heat.mode == "isothermal":
         Q = outlet["heat_duty_W"]
         numbers.append({"label": "Heat through the walls (negative: removed)", "value": fmt(Q / 1e3, 4)
                         if Q is not None else "n/a", "unit": "kW"})
 
     flags = []
     if result.status != "completed":
-        flags.append({"level": "danger", "label": "Run", "text": f"Stopped before the end of the tube: "
+        flags.append({"level": "unacceptable", "label": "Run", "text": f"Stopped before the end of the tube: "
                       f"{result.termination}."})
     flags.append(_hot_spot_flag(case, result, screening))
     flags.append(_runaway_flag(case, result, screening, screening_reason))
     if target is not None:
         if d["reached"]:
-            flags.append({"level": "ok", "label": "Target conversion",
+            flags.append({"level": "acceptable", "label": "Target conversion",
                           "text": f"X = {fmt(target, 4)} is reached at z = {fmt(d['length_m'], 4)} m of "
                                   f"{fmt(case.tube.length, 4)} m."})
         else:
-            flags.append({"level": "attention", "label": "Target conversion",
+            flags.append({"level": "review", "label": "Target conversion",
                           "text": f"X = {fmt(target, 4)} is not reached in the {fmt(case.tube.length, 4)} m tube "
                                   f"(outlet conversion {fixed(outlet['conversion'], 4)})."})
     max_dp = case.design.max_pressure_drop
     if _finite(max_dp) and dp is not None:
         ok = dp <= max_dp
-        flags.append({"level": "ok" if ok else "danger", "label": "Pressure drop",
+        flags.append({"level": "acceptable" if ok else "unacceptable", "label": "Pressure drop",
                       "text": f"{fmt(dp / 1e3, 4)} kPa {'within' if ok else 'above'} the allowed "
                               f"{fmt(max_dp / 1e3, 4)} kPa."})
     if assumptions is not None:
         for name, entry in assumptions.get("assumptions", {}).items():
             flags.append(_assumption_flag(name, entry, case, assumptions))
     else:
-        flags.append({"level": "attention", "label": "Assumptions", "text": "The assumption check was not run."})
+        flags.append({"level": "review", "label": "Assumptions", "text": "The assumption check was not run."})
     return {"numbers": numbers, "flags": flags}

@@ -42,10 +42,10 @@ printed as they are (round them first). "text" below means ``str``.
     ``rows``: list of ``{field, as_written, si_value, si_unit}``, one per case input.
     ``species``: list of ``{name, source, molar_mass, t_min, t_max}``
     (molar mass text in g/mol; validity range of the thermo data, text in K).
-    ``reactions``: list of ``{equation, rate_law, parameters}``; ``parameters``
+    ``reactions``: list of ``{label, equation, rate_form, parameters}`` (label ``R1 = reactions[0]``); ``parameters``
     is a list of ``{name, as_written, si_value, si_unit}``.
 ``profiles`` : mapping
-    ``plots``: list of *plot* (temperature with coolant, hot spot and limit;
+    ``plots``: list of *plot* (temperature with the medium, hot spot and limit;
     conversion; pressure; mole fractions).
 ``assumptions``, ``screening``, ``numerics`` : *block* each
     ``numerics`` has one more key, ``warnings``: list of text (may be empty).
@@ -62,7 +62,7 @@ printed as they are (round them first). "text" below means ``str``.
 Building blocks:
 
 *flag* : ``{level, label, text}``
-    ``level`` is ``"ok"``, ``"attention"`` or ``"danger"`` (anything else raises
+    ``level`` is ``"acceptable"``, ``"review"`` or ``"unacceptable"`` (anything else raises
     ``ReportError``); printed as a word and a symbol (see :data:`LEVELS`) with
     colour and border pattern, so it reads in black and white. ``label`` is
     the short subject ("Hot spot"), ``text`` one verdict sentence.
@@ -75,7 +75,7 @@ Building blocks:
     ``available`` bool; when false only ``reason_if_not`` (text) is read and
     the section says "Not evaluated: <reason>". Otherwise ``paragraphs`` (list
     of text), ``flags``, ``tables`` and ``plots`` are shown in that order; the
-    lists may be empty. Attribution of the textbook-vs-full differences goes
+    lists may be empty. Attribution of the ideal-vs-full differences goes
     in a table or paragraph of ``assumptions``.
 """
 import functools
@@ -98,11 +98,11 @@ SECTIONS = (
     ("provenance", "Provenance"),
 )
 
-#: Verdict level -> printed word, symbol and CSS class. Never colour alone.
+#: Verdict level (simulator.verdicts) -> printed word, symbol and CSS class (border pattern). Never colour alone.
 LEVELS = {
-    "ok": {"word": "OK", "symbol": "\u2714", "css": "lv-ok"},
-    "attention": {"word": "ATTENTION", "symbol": "\u26a0", "css": "lv-attention"},
-    "danger": {"word": "DANGER", "symbol": "\u2716", "css": "lv-danger"},
+    "acceptable": {"word": "acceptable", "symbol": "\u2713", "css": "lv-acceptable"},
+    "review": {"word": "review", "symbol": "\u25c7", "css": "lv-review"},
+    "unacceptable": {"word": "unacceptable", "symbol": "\u2715", "css": "lv-unacceptable"},
 }
 
 #: Cautions every design-basis report carries (common practice, no single source).
@@ -116,10 +116,10 @@ STANDARD_CAUTIONS = (
     "concentration can move the hot spot by hundreds of kelvin. Read the margins, not only "
     "the verdict.",
     "Radial temperature gradients, catalyst dilution and activity profiles, tube-to-tube "
-    "maldistribution, coolant-side temperature rise and fouling are not captured unless "
+    "maldistribution, shell-side (medium) temperature rise and fouling are not captured unless "
     "modelled; one-dimensional limits can be non-conservative.",
     "Steady-state screening does not cover dynamics: start-up, shut-down, feed upsets, loss "
-    "of coolant, wrong-way behaviour or oscillations.",
+    "of cooling, wrong-way behaviour or oscillations.",
     "Not covered: hazard identification and risk studies (e.g. HAZOP, LOPA/SIL), "
     "flammability and explosion limits of the feed, emergency relief and vent sizing, "
     "materials and mechanical design, regulatory compliance.",

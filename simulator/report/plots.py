@@ -165,9 +165,9 @@ def _temperature_unit(temperature_unit):
     return _TEMPERATURE_UNITS[temperature_unit]
 
 
-def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_limit=None,
+def profile_temperature_plot(z, T, medium_T=None, hot_spot=None, temperature_limit=None,
                              target_position=None, *, temperature_unit="K", title=None,
-                             coolant_label="Coolant temperature"):
+                             medium_label="Medium temperature"):
     """Axial temperature profile with hot spot, limit and target position marked.
 
     Parameters
@@ -176,8 +176,8 @@ def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_li
         Axial positions, [m]
     T : array_like
         Process-side (bed) temperature at ``z``, [K]
-    coolant_T : array_like or float, optional
-        Coolant temperature at ``z`` (array) or constant coolant temperature, [K]
+    medium_T : array_like or float, optional
+        Medium temperature at ``z`` (array) or constant medium temperature, [K]
     hot_spot : tuple of float, optional
         Position and temperature of the hot spot, ``(z_hot [m], T_hot [K])``
     temperature_limit : float, optional
@@ -188,8 +188,8 @@ def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_li
         Unit shown on the axis; inputs are always kelvin, [-]
     title : str, optional
         Figure title, drawn literally (may be case text), [-]
-    coolant_label : str
-        Legend text of the coolant curve, e.g. "Heating-medium temperature"
+    medium_label : str
+        Legend text of the medium curve, e.g. "Heating-medium temperature"
         for a heated tube, drawn literally, [-]
 
     Returns
@@ -209,12 +209,12 @@ def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_li
     with _rc():
         ax.plot(z, T + offset, label="Process (bed) temperature",
                 markevery=_markevery(z.size), **_style(0))
-        if coolant_T is not None:
-            coolant = np.asarray(coolant_T, dtype=float)
-            if coolant.ndim == 0:
-                coolant = np.full(z.size, float(coolant))
-            coolant = _as_1d("coolant_T", coolant, z.size)
-            ax.plot(z, coolant + offset, label=_literal(coolant_label, 40),
+        if medium_T is not None:
+            medium = np.asarray(medium_T, dtype=float)
+            if medium.ndim == 0:
+                medium = np.full(z.size, float(medium))
+            medium = _as_1d("medium_T", medium, z.size)
+            ax.plot(z, medium + offset, label=_literal(medium_label, 40),
                     markevery=_markevery(z.size), **_style(1))
         if temperature_limit is not None:
             ax.axhline(float(temperature_limit) + offset, color="#a1331b", linestyle=(0, (6, 2)),
@@ -234,10 +234,10 @@ def profile_temperature_plot(z, T, coolant_T=None, hot_spot=None, temperature_li
         if title:
             ax.set_title(_literal(title))
         fig.legend(loc="outside lower center", ncols=3)
-    return _to_uri(fig, _salt("temperature", z, T, coolant_T if coolant_T is None
-                                 else np.asarray(coolant_T, dtype=float).reshape(-1),
+    return _to_uri(fig, _salt("temperature", z, T, medium_T if medium_T is None
+                                 else np.asarray(medium_T, dtype=float).reshape(-1),
                                  hot_spot, temperature_limit, target_position,
-                                 temperature_unit, title, coolant_label))
+                                 temperature_unit, title, medium_label))
 
 
 def profile_lines_plot(z, series, ylabel, title=None, *, xlabel="Axial position z [m]",
@@ -293,8 +293,16 @@ def profile_lines_plot(z, series, ylabel, title=None, *, xlabel="Axial position 
     return _to_uri(fig, _salt("lines", z, *arrays, tuple(series), ylabel, title, xlabel, log_y))
 
 
+def _unit_of(label):
+    """' K' from 'Medium temperature [K]'; '' for a dimensionless or unit-less label."""
+    if label.endswith("]") and "[" in label:
+        unit = label[label.rindex("[") + 1:-1].strip()
+        return "" if unit in ("-", "") else f" {unit}"
+    return ""
+
+
 def sensitivity_plot(x, hot_spot_T, current_x=None, critical_x=None, *,
-                     xlabel="Coolant temperature [K]", ylabel="Hot-spot temperature [K]",
+                     xlabel="Medium temperature [K]", ylabel="Hot-spot temperature [K]",
                      title=None, x_offset=0.0, y_offset=0.0):
     """Hot-spot temperature against one parameter, current and critical points marked.
 
@@ -304,7 +312,7 @@ def sensitivity_plot(x, hot_spot_T, current_x=None, critical_x=None, *,
     Parameters
     ----------
     x : array_like
-        Swept parameter values (e.g. coolant temperature [K] or inlet mole
+        Swept parameter values (e.g. medium temperature [K] or inlet mole
         fraction [-]), in the unit named in ``xlabel``
     hot_spot_T : array_like
         Hot-spot temperature for each ``x``, [K]
@@ -321,7 +329,7 @@ def sensitivity_plot(x, hot_spot_T, current_x=None, critical_x=None, *,
         Figure title, drawn literally, [-]
     x_offset : float
         Added to ``x``, ``current_x`` and ``critical_x`` for display (e.g. -273.15
-        to show a coolant temperature in degC); unit as ``x``
+        to show a medium temperature in degC); unit as ``x``
     y_offset : float
         Added to ``hot_spot_T`` for display (e.g. -273.15 for degC), [K]
 
@@ -346,7 +354,7 @@ def sensitivity_plot(x, hot_spot_T, current_x=None, critical_x=None, *,
         if critical_x is not None:
             xc = float(critical_x) + x_offset
             ax.axvline(xc, color="#a1331b", linestyle="--", linewidth=1.4,
-                       label=f"Critical value ({xc:.4g})")
+                       label=f"Critical value {xc:.4g}{_unit_of(xlabel)}")
         if current_x is not None:
             xd = float(current_x) + x_offset
             finite = np.isfinite(ys)
@@ -354,10 +362,10 @@ def sensitivity_plot(x, hot_spot_T, current_x=None, critical_x=None, *,
                 yd = float(np.interp(xd, xs[finite], ys[finite]))
                 ax.plot([xd], [yd], linestyle="none", marker="D", markersize=9,
                         markerfacecolor="white", markeredgecolor="black", markeredgewidth=1.8,
-                        label=f"Design case ({xd:.4g})")
+                        label=f"Design case {xd:.4g}{_unit_of(xlabel)}")
             else:
                 ax.axvline(xd, color="black", linestyle=":", linewidth=1.4,
-                           label=f"Design case ({xd:.4g})")
+                           label=f"Design case {xd:.4g}{_unit_of(xlabel)}")
         ax.set_xlabel(_literal(xlabel, 70))
         ax.set_ylabel(_literal(ylabel, 50))
         if title:

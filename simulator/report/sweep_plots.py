@@ -22,7 +22,7 @@ def runaway_map_svg(x, y, rise, boundary_x, xlabel, ylabel, title, stopped=None)
     y : ndarray
         Grid values along the vertical axis (display units), [-]
     rise : ndarray
-        Hot-spot rise above the coolant, shape (len(y), len(x)), [K]
+        Hot-spot rise above the medium, shape (len(y), len(x)), [K]
     boundary_x : ndarray
         Critical x for each y (NaN where none), [-]
     xlabel : str
@@ -43,7 +43,7 @@ def runaway_map_svg(x, y, rise, boundary_x, xlabel, ylabel, title, stopped=None)
         fig, ax = _new_figure(height=4.2)
         mesh = ax.pcolormesh(x, y, rise, shading="nearest", cmap="Greys", rasterized=True)
         cbar = fig.colorbar(mesh, ax=ax)
-        cbar.set_label("Hot-spot rise above coolant [K]")
+        cbar.set_label("Hot-spot rise above the medium [K]")
         levels = [lv for lv in (10, 30, 100, 300) if np.nanmin(rise) < lv < np.nanmax(rise)]
         if levels:
             contours = ax.contour(x, y, rise, levels=levels, colors="black", linewidths=0.6, linestyles=":")
@@ -111,10 +111,9 @@ def _base_temperature(raw, path):
 
 
 def _label(path):
-    units = {"temperature": "K", "pressure": "Pa", "coefficient": "W/(m^2 K)", "pre_exponential": "SI",
-             "activation_energy": "J/mol", "length": "m", "diameter": "m", "flow": "SI"}
-    unit = next((u for k, u in units.items() if k in path.rsplit(".", 1)[-1]), "-")
-    return f"{path} [{unit}]"
+    from simulator.report.context_format import path_label
+
+    return path_label(path)
 
 
 def write_sweep_figures(out_dir, raw):
@@ -135,7 +134,7 @@ def write_sweep_figures(out_dir, raw):
         paths = store.varied_paths
         rows = store.rows()
     title = raw.get("title", "")
-    cool = "heat.coolant_temperature"
+    cool = "heat.medium.temperature"
 
     def reference(row):
         if cool in row:

@@ -6,7 +6,7 @@ without ``tests/`` lists them too. ``tests/test_report_end_to_end.py`` fails whe
 this snapshot and the markers differ; after changing a marker, run
 ``python -c "from simulator.report.validation import write_snapshot; write_snapshot()"``.
 """
-CHECKS = ({'check': 'Textbook branch equals Levenspiel volume with expansion',
+CHECKS = ({'check': 'Ideal branch equals Levenspiel volume with expansion',
   'source': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5 (equation numbers '
             'from memory) — ch. 5, PFR performance equation with expansion, first order (eq. 5.21 from '
             'memory)',
@@ -14,7 +14,7 @@ CHECKS = ({'check': 'Textbook branch equals Levenspiel volume with expansion',
   'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5 (equation numbers '
               'from memory)',
   'where': 'ch. 5, PFR performance equation with expansion, first order (eq. 5.21 from memory)',
-  'test': 'tests/test_assumptions.py::test_textbook_branch_equals_levenspiel_volume_with_expansion'},
+  'test': 'tests/test_assumptions.py::test_ideal_branch_equals_levenspiel_volume_with_expansion'},
  {'check': 'Lhhw rate equals the hand formula',
   'source': 'O.A. Hougen, K.M. Watson, Chemical Process Principles, Part III: Kinetics and Catalysis, Wiley, '
             '1947 (form of the Langmuir-Hinshelwood-Hougen-Watson rate; from memory) — LHHW rate form '

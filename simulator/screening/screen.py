@@ -5,7 +5,7 @@
 Morbidelli-Varma criterion, the maximum of the normalized sensitivity
 s = (phi/T*) dT*/dphi, along one operating parameter at a time.
 
-Coarse scans. The coarse sensitivity scans along feed fraction, coolant and inlet
+Coarse scans. The coarse sensitivity scans along feed fraction, medium and inlet
 temperature run in one batch each through the sweep engine's compiled integrator
 (:mod:`simulator.sweeps.fast`, same tolerances); the refinement around the maximum
 of |s| uses :func:`~simulator.solve.integrate.simulate`.
@@ -18,20 +18,20 @@ as a failed evaluation, which the sensitivity search reports.
 
 Dominant reaction. With several reactions, the groups are those of the
 reaction with the largest heat release rate (-dH_j) r_j at the feed
-composition and the coolant temperature (the reaction that drives the
+composition and the medium temperature (the reaction that drives the
 runaway); its activation energy enters gamma and the maxima curve.
 
 Risk rule (documented choice; thresholds are common practice, no source):
 * ``runaway`` if the operating point lies on the runaway side of a located
-  Morbidelli-Varma boundary (feed fraction, coolant or inlet temperature), or
+  Morbidelli-Varma boundary (feed fraction, medium or inlet temperature), or
   the hot spot exceeds the Van Welsenaere-Froment maxima-curve temperature T_m
   by more than R Tc^2/E;
-* ``sensitive`` if s - phi/T* > 1 for the inlet or coolant temperature (phi/T* is
+* ``sensitive`` if s - phi/T* > 1 for the inlet or medium temperature (phi/T* is
   the sensitivity of a hot spot that follows that temperature one to one, as it does
   without reaction, so only the reaction's amplification counts), |s| > 1 for the feed
   fraction, U or the mass flow, a
   relative margin in feed fraction below 10 %,
-  or a coolant / inlet temperature margin below R Tc^2/E;
+  or a medium / inlet temperature margin below R Tc^2/E;
 * ``adequate margin`` otherwise.
 """
 import dataclasses
@@ -45,6 +45,7 @@ from simulator.model.build import build_model
 from simulator.screening import criteria as C
 from simulator.solve.integrate import simulate
 from simulator.units import R
+from simulator.verdicts import criterion_level, risk_level
 
 CAUTIONS = (
     "Screening-level result from a one-dimensional pseudo-homogeneous plug-flow model with a lumped "
@@ -54,18 +55,18 @@ CAUTIONS = (
     "U, heat capacity or feed concentration moves the hot spot by hundreds of kelvin. Judge margins, not a "
     "single pass/fail.",
     "Not covered: hazard identification and risk assessment (HAZOP, LOPA/SIL), emergency relief and vent "
-    "sizing, flammability and explosion limits of the feed, dynamics, start-up, shutdown, loss of coolant "
+    "sizing, flammability and explosion limits of the feed, dynamics, start-up, shutdown, loss of cooling "
     "and wrong-way behaviour, radial temperature gradients, catalyst deactivation and tube-to-tube "
     "maldistribution, mechanical design.",
     "Kinetic parameters and thermochemical data carry uncertainty; the results are only as good as the "
     "case's data and their validity ranges.",
 )
 
-SENSITIVITY_PARAMETERS = ("feed_mole_fraction", "inlet_temperature", "coolant_temperature",
+SENSITIVITY_PARAMETERS = ("feed_mole_fraction", "inlet_temperature", "medium_temperature",
                           "overall_coefficient", "mass_flow")
 SOLVER = {"rtol": 1e-10, "atol_scale": 1e-12}
 #: screening parameter -> sweep path of the compiled batch integrator (KEY = the key species)
-SWEEP_PATHS = {"feed_mole_fraction": "feed.mole_fractions.KEY", "coolant_temperature": "heat.coolant_temperature",
+SWEEP_PATHS = {"feed_mole_fraction": "feed.mole_fractions.KEY", "medium_temperature": "heat.medium.temperature",
                "inlet_temperature": "feed.temperature"}
 REL_STEP = 1e-4
 #: Smallest peak |s| taken as a runaway boundary. No published value: in the first-order reference
@@ -94,8 +95,8 @@ class _Variants:
             return dict(c.feed.mole_fractions)[c.design.key_species]
         if name == "inlet_temperature":
             return c.feed.temperature
-        if name == "coolant_temperature":
-            return c.heat.coolant_temperature
+        if name == "medium_temperature":
+            return c.heat.medium_temperature
         if name == "overall_coefficient":
             return c.heat.overall_coefficient
         if name == "mass_flow":
@@ -117,8 +118,8 @@ class _Variants:
             return dataclasses.replace(c, feed=dataclasses.replace(c.feed, mole_fractions=fractions))
         if name == "inlet_temperature":
             return dataclasses.replace(c, feed=dataclasses.replace(c.feed, temperature=value))
-        if name == "coolant_temperature":
-            return dataclasses.replace(c, heat=dataclasses.replace(c.heat, coolant_temperature=value))
+        if name == "medium_temperature":
+            return dataclasses.replace(c, heat=dataclasses.replace(c.heat, medium_temperature=value))
         if name == "overall_coefficient":
             return dataclasses.replace(c, heat=dataclasses.replace(c.heat, overall_coefficient=value))
         if name == "mass_flow":
@@ -173,10 +174,10 @@ class _Variants:
 
 
 def dominant_reaction(model):
-    """Index of the reaction with the largest heat release rate at feed composition and coolant T."""
+    """Index of the reaction with the largest heat release rate at feed composition and medium T."""
     case = model.case
     n = model.n
-    Tc = case.heat.coolant_temperature
+    Tc = case.heat.medium_temperature
     y = model.y0.copy()
     rates = np.empty(len(case.reactions))
     K.reaction_rates(Tc, case.feed.pressure, y[:n], *_rate_args(model), rates)
@@ -196,7 +197,7 @@ def dimensionless_groups(model, j, rates, dH):
     """gamma, B, St, Da, N, psi of reaction j for one tube (definitions in runaway.md section 0)."""
     case = model.case
     n = model.n
-    Tc = case.heat.coolant_temperature
+    Tc = case.heat.medium_temperature
     key = model.key_index
     nu_key = -model.args[4][key, j]
     F0 = model.y0[:n]
@@ -219,10 +220,10 @@ def dimensionless_groups(model, j, rates, dH):
 
 
 def _range(name, base, case, rise):
-    Tc = case.heat.coolant_temperature
+    Tc = case.heat.medium_temperature
     if name == "feed_mole_fraction":
         return 0.4 * base, min(2.5 * base, 0.5 * (1.0 + base))
-    if name in ("coolant_temperature", "inlet_temperature"):
+    if name in ("medium_temperature", "inlet_temperature"):
         width = max(60.0, 0.3 * abs(rise)) if math.isfinite(rise) else 60.0
         return max(base - 0.5 * width, 0.5 * Tc), base + width
     raise KeyError(name)
@@ -234,7 +235,7 @@ def screen(case, n_coarse=21):
     Parameters
     ----------
     case : simulator.case.schema.Case
-        A case with heat mode ``constant-coolant`` or ``co-current`` and an exothermic reaction.
+        A case with ``heat.mode = "exchange"`` (a medium on the shell side) and an exothermic reaction.
     n_coarse : int
         Points of each coarse sensitivity scan, [-]
 
@@ -242,9 +243,9 @@ def screen(case, n_coarse=21):
     -------
     dict
     """
-    if case.heat.mode not in ("constant-coolant", "co-current"):
-        raise CaseError(f"{case.source_path}: heat.mode = {case.heat.mode!r}: runaway screening needs a cooled "
-                        'tube (mode = "constant-coolant" or "co-current").')
+    if not case.heat.exchange:
+        raise CaseError(f"{case.source_path}: heat.mode = {case.heat.mode!r}: runaway screening needs a tube "
+                        'cooled through its wall (heat.mode = "exchange" with a [heat.medium]).')
     base_result = simulate(case)
     if base_result.status == "failed":
         raise SimulatorError(f"the base case failed: {base_result.termination}")
@@ -260,11 +261,11 @@ def screen(case, n_coarse=21):
     j, rates, dH = dominant_reaction(model)
     groups = dimensionless_groups(model, j, rates, dH)
     screened = v.solve("feed_mole_fraction", v.base["feed_mole_fraction"])
-    Tc = case.heat.coolant_temperature
+    Tc = case.heat.medium_temperature
     E = case.reactions[j].activation_energy
     T_star = screened.hot_spot["temperature_K"]
     hot = dict(screened.hot_spot)
-    hot["rise_above_coolant_K"] = T_star - Tc
+    hot["rise_above_medium_K"] = T_star - Tc
 
     # criteria on the operating point
     crit = {}
@@ -281,7 +282,7 @@ def screen(case, n_coarse=21):
     # Morbidelli-Varma boundaries along three parameters
     critical = {}
     scans = {}
-    for name, key in (("feed_mole_fraction", "feed_mole_fraction"), ("coolant_temperature", "coolant_temperature_K"),
+    for name, key in (("feed_mole_fraction", "feed_mole_fraction"), ("medium_temperature", "medium_temperature_K"),
                       ("inlet_temperature", "inlet_temperature_K")):
         base = v.base[name]
         lo, hi = _range(name, base, case, rise)
@@ -318,12 +319,13 @@ def screen(case, n_coarse=21):
     excess = _excess_sensitivity(v, sensitivity, T_star)
 
     risk, rule = _risk(critical, excess, vwf, Tc, E, T_star)
+    _attach_levels(crit, critical)
     return {
         "title": case.title,
         "key_species": case.design.key_species,
         "adiabatic_temperature_rise_K": rise,
         "hot_spot": hot,
-        "coolant_temperature_K": Tc,
+        "medium_temperature_K": Tc,
         "groups": groups,
         "criteria": crit,
         "critical": critical,
@@ -331,6 +333,7 @@ def screen(case, n_coarse=21):
         "sensitivity_without_reaction": {k: excess[k + "_inert"] for k in TEMPERATURE_PARAMETERS},
         "sensitivity_excess": {k: excess[k] for k in SENSITIVITY_PARAMETERS},
         "risk": risk,
+        "risk_level": risk_level(risk),
         "risk_rule": rule,
         "cautions": list(CAUTIONS),
         "solves": v.solves + v.batched + 1,
@@ -342,6 +345,15 @@ def screen(case, n_coarse=21):
                        "morbidelli_varma1988"],
         "_log": v.log,
     }
+
+
+def _attach_levels(criteria, critical):
+    """Write the level of every verdict beside it (:mod:`simulator.verdicts`)."""
+    for entry in list(criteria.values()) + list(critical.values()):
+        entry["level"] = criterion_level(entry["verdict"])
+        inner = entry.get("inflection")
+        if isinstance(inner, dict):
+            inner["level"] = criterion_level(inner["verdict"])
 
 
 def _profile_derivatives(result, model):
@@ -437,13 +449,13 @@ def _criteria_boundaries(v, crit, mv_entry, Tc, E):
         target["feed_search_range"] = [lo, hi]
 
 
-TEMPERATURE_PARAMETERS = ("inlet_temperature", "coolant_temperature")
+TEMPERATURE_PARAMETERS = ("inlet_temperature", "medium_temperature")
 
 
 def _excess_sensitivity(v, sensitivity, T_star):
     """s minus the sensitivity the tube would have if its hot spot followed the parameter one to one.
 
-    Without reaction the hot spot is the inlet or the coolant temperature, so dT*/dphi = 1 and
+    Without reaction the hot spot is the inlet or the medium temperature, so dT*/dphi = 1 and
     s_0 = phi/T* for those two parameters whatever the kinetics; only the excess over that
     baseline measures the reaction's amplification. For the other parameters s_0 = 0. Returns
     the excess per parameter and the baselines as ``<name>_inert``.
@@ -480,13 +492,13 @@ def _risk(critical, sensitivity, vwf, Tc, E, T_star):
     fm = critical["feed_mole_fraction"]
     if fm["found"] and fm["margin_relative"] is not None and abs(fm["margin_relative"]) < 0.10:
         sens.append(f"feed-fraction margin {100 * fm['margin_relative']:.1f} % < 10 %")
-    for key in ("coolant_temperature_K", "inlet_temperature_K"):
+    for key in ("medium_temperature_K", "inlet_temperature_K"):
         e = critical[key]
         if e["found"] and e["margin"] is not None and abs(e["margin"]) < scale:
             sens.append(f"{key} margin {e['margin']:.1f} K < R Tc^2/E = {scale:.1f} K")
     if sens:
         return "sensitive", "; ".join(sens)
-    return "adequate margin", (f"no s - T/T* > 1 (inlet, coolant temperature) or |s| > 1 (feed fraction, U, "
+    return "adequate margin", (f"no s - T/T* > 1 (inlet, medium temperature) or |s| > 1 (feed fraction, U, "
                                f"mass flow), feed-fraction margin >= 10 % and temperature margins >= R Tc^2/E "
                                f"= {scale:.1f} K (thresholds: common practice, no source)")
 
@@ -504,9 +516,9 @@ def format_screening(report):
         return "n/a" if value is None else format(value, spec)
 
     lines = [report["title"],
-             f"  RISK: {report['risk'].upper()}  ({report['risk_rule']})",
+             f"  risk: {report['risk']} (level {report['risk_level']}; {report['risk_rule']})",
              f"  hot spot {h['temperature_K']:.2f} K at z = {h['position_m']:.4g} m, "
-             f"{h['rise_above_coolant_K']:+.2f} K above the coolant; adiabatic rise "
+             f"{h['rise_above_medium_K']:+.2f} K above the medium; adiabatic rise "
              f"{report['adiabatic_temperature_rise_K']:.1f} K",
              f"  groups ({g['reaction']}): gamma {g['gamma']:.3g}, B {g['B']:.3g}, St {g['St']:.3g}, "
              f"Da {g['Da']:.3g}, N {g['N']:.3g}, psi {g['psi']:.3g}",
@@ -515,7 +527,7 @@ def format_screening(report):
         extra = ""
         if c.get("critical_feed_mole_fraction") is not None:
             extra = f", critical feed fraction {c['critical_feed_mole_fraction']:.5g}"
-        lines.append(f"    {name:24s}{c['verdict']:>10s}  critical {f(c['critical'])}{extra}")
+        lines.append(f"    {name:24s}{c['verdict']:>10s} ({c['level']})  critical {f(c['critical'])}{extra}")
     lines.append("  critical values (Morbidelli-Varma):")
     for name, c in report["critical"].items():
         if c["found"]:

@@ -368,7 +368,7 @@ def _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit):
     if stopped_by_limit:
         return {"temperature_K": float(ys[-1, n]), "position_m": float(zs[-1]),
                 "rise_above_feed_K": float(ys[-1, n] - T0),
-                "rise_above_coolant_K": _rise_above_coolant(case, ys[-1]),
+                "rise_above_medium_K": _rise_above_medium(case, ys[-1]),
                 "located_by": "temperature limit: the run stopped there; the true maximum is higher"}
     candidates = [(float(ys[0, n]), float(zs[0]), ys[0], "inlet"),
                   (float(ys[-1, n]), float(zs[-1]), ys[-1], "outlet (temperature still rising)"
@@ -379,7 +379,7 @@ def _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit):
         candidates.append((float(y_m[n]), float(z_m), y_m, "event dT/dz = 0"))
     T_max, z_max, y_max, how = max(candidates, key=lambda c: c[0])
     return {"temperature_K": T_max, "position_m": z_max, "rise_above_feed_K": T_max - T0,
-            "rise_above_coolant_K": _rise_above_coolant(case, y_max), "located_by": how}
+            "rise_above_medium_K": _rise_above_medium(case, y_max), "located_by": how}
 
 
 def _locate_maximum(tube, zs, ys, k, dTdz, n, tolerance=1e-6):
@@ -430,8 +430,8 @@ def _hermite_stationary_point(z0, z1, T0, T1, d0, d1):
     return z0 + h * min(max(t, 0.0), 1.0)
 
 
-def _rise_above_coolant(case, y):
-    if case.heat.mode not in ("constant-coolant", "co-current"):
+def _rise_above_medium(case, y):
+    if not case.heat.exchange:
         return None
     n = len(case.species)
     return float(y[n] - y[n + 2])
@@ -460,7 +460,7 @@ def references_used(case, model, compressibility_computed=False):
         base = case.thermo.species_file.rsplit("/", 1)[-1]
         keys.append({"gri30.yaml": "gri30", "nasa_gas.yaml": "nasa_gas"}.get(base, "mcbride2002"))
         keys.append("mcbride2002")
-    if any(r.rate_law == "lhhw" for r in case.reactions):
+    if any(r.form == "hougen-watson" for r in case.reactions):
         keys.append("hougen_watson1947")
     if case.pressure_drop.model == "ergun":
         keys.append("ergun1952")

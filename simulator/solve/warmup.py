@@ -18,7 +18,7 @@ CASE = {
              "mole_fractions": {"A": 0.5, "N2": 0.5}},
     "tube": {"length": "1 m", "inner_diameter": "25 mm", "count": 1},
     "bed": {"particle_diameter": "3 mm", "void_fraction": 0.4, "bulk_density": "1000 kg/m^3"},
-    "heat": {"mode": "constant-coolant", "overall_coefficient": "100 W/(m^2*K)", "coolant_temperature": "500 K"},
+    "heat": {"mode": "exchange", "overall_coefficient": "100 W/(m^2*K)", "medium": {"temperature": "500 K"}},
     "pressure_drop": {"model": "ergun", "viscosity": "2e-5 Pa*s"},
     "design": {"key_species": "A", "target_conversion": 0.5},
 }

@@ -500,7 +500,7 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
     case_dir : str or Path
         Folder of the case file.
     vary : sequence of str or VarySpec
-        ``"PATH=START:STOP:N"`` options.
+        ``"PATH=START..STOP in N"`` options.
     evaluator : callable
         Picklable ``evaluator(raw_case, case_dir) -> dict``.
     out_dir : str or Path
@@ -515,7 +515,7 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
     """
     specs = [spec if isinstance(spec, VarySpec) else parse_vary(spec) for spec in vary]
     if not specs:
-        raise CaseError('--vary: give at least one "PATH=START:STOP:N"')
+        raise CaseError('--vary: give at least one "PATH=START..STOP in N"')
     for spec in specs:
         check_vary(base_raw, spec)
     cases = grid(specs)

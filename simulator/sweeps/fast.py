@@ -1,6 +1,6 @@
 """Compiled batch solver for sweeps over numeric operating parameters.
 
-A sweep whose cases differ from one base case only in numbers such as the coolant
+A sweep whose cases differ from one base case only in numbers such as the medium
 temperature, the feed composition or a rate constant does not need a case file,
 Cantera or a Python integrator per case. This module
 
@@ -75,7 +75,7 @@ PRESSURE_FLOOR = 0.01
 _FRACTION = re.compile(r"^feed\.mole_fractions\.([^.]+)$")
 _REACTION = re.compile(r"^reactions\.(\d+)\.(pre_exponential|activation_energy|temperature_exponent)$")
 _FLOWS = ("molar_flow", "mass_flow", "volumetric_flow")
-_SIMPLE = ("heat.coolant_temperature", "heat.overall_coefficient", "feed.temperature", "feed.pressure")
+_SIMPLE = ("heat.medium.temperature", "heat.overall_coefficient", "feed.temperature", "feed.pressure")
 _FEED_PATHS = ("feed.temperature", "feed.pressure") + tuple(f"feed.{k}" for k in _FLOWS)
 _RX_COLUMN = {"pre_exponential": K.X_A, "activation_energy": K.X_E, "temperature_exponent": K.X_B}
 
@@ -118,9 +118,8 @@ def unsupported_reason(paths, model=None):
         frac = _FRACTION.match(path)
         react = _REACTION.match(path)
         if path in _SIMPLE:
-            if case is not None and path.startswith("heat.") and case.heat.mode not in ("constant-coolant",
-                                                                                         "co-current"):
-                return f"{path}: heat.mode = {case.heat.mode!r} has no coolant"
+            if case is not None and path.startswith("heat.") and not case.heat.exchange:
+                return f"{path}: heat.mode = {case.heat.mode!r} has no medium"
         elif path in tuple(f"feed.{k}" for k in _FLOWS):
             if case is not None and path != f"feed.{case.feed.flow_kind}":
                 return f"{path}: the case gives feed.{case.feed.flow_kind}"
@@ -152,7 +151,7 @@ def supports(paths, model=None):
     Parameters
     ----------
     paths : sequence of str
-        Dotted case paths varied in the sweep, e.g. ``["heat.coolant_temperature",
+        Dotted case paths varied in the sweep, e.g. ``["heat.medium.temperature",
         "feed.mole_fractions.C2H4"]``.
     model : simulator.model.build.Model, optional
         Base model, for the case-specific checks of :func:`unsupported_reason`.
@@ -308,7 +307,7 @@ def pack_cases(model, params, paths):
 
     for path, v in col.items():
         react = _REACTION.match(path)
-        if path == "heat.coolant_temperature":
+        if path == "heat.medium.temperature":
             valid &= v > 0.0
             fp[:, K.F_TC] = v
             y0[:, n + 2] = v
@@ -358,7 +357,7 @@ def pack_cases(model, params, paths):
         Ft0 = Ft0u[inverse]
         T0 = feed_T[rows]
         P0 = feed_P[rows]
-        Tc0 = fp[rows, K.F_TC] if case.heat.mode in ("constant-coolant", "co-current") else T0
+        Tc0 = fp[rows, K.F_TC] if case.heat.exchange else T0
         y0[rows, :n] = F0
         y0[rows, n] = T0
         y0[rows, n + 1] = P0

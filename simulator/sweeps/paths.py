@@ -41,12 +41,12 @@ _INT_TEXT = re.compile(r"^\s*[-+]?\d+\s*$")
 
 @dataclass(frozen=True)
 class VarySpec:
-    """One ``--vary PATH=START:STOP:N`` option, parsed.
+    """One ``--vary "PATH=START..STOP in N"`` option, parsed.
 
     Attributes
     ----------
     path : str
-        Dotted path into the raw case, e.g. ``"heat.coolant_temperature"``.
+        Dotted path into the raw case, e.g. ``"heat.medium.temperature"``.
     values_si : ndarray
         The N values, evenly spaced from START to STOP, in SI base units (unit of the field)
     values_text : list of str
@@ -68,7 +68,7 @@ class VarySpec:
 def _split_path(path):
     parts = path.split(".")
     if not path or any(part == "" for part in parts):
-        raise CaseError(f"{path!r}: not a dotted path such as 'heat.coolant_temperature'")
+        raise CaseError(f"{path!r}: not a dotted path such as 'heat.medium.temperature'")
     return parts
 
 
@@ -207,16 +207,22 @@ def _si_unit_for(dimensionality):
     return f"{units.units:~}"
 
 
+_RANGE = re.compile(r"^(?P<start>.*?)\.\.(?P<stop>.*?)\bin\s+(?P<n>\S+)\s*$")
+_EXAMPLE = '"heat.medium.temperature=600 K..660 K in 31"'
+
+
 def parse_vary(spec):
-    """Parse one ``--vary "PATH=START:STOP:N"`` option.
+    """Parse one ``--vary "PATH=START..STOP in N"`` option.
 
     Parameters
     ----------
     spec : str
-        ``PATH=START:STOP:N``. START and STOP both carry units of the same dimension
-        (``"heat.coolant_temperature=600 K:660 K:31"``), or are both plain numbers for
-        dimensionless fields (``"feed.mole_fractions.OX=0.01:0.03:5"``, ``"tube.count=100:200:3"``).
-        N is a whole number >= 1; N = 1 requires START == STOP.
+        ``PATH=START..STOP in N``. START and STOP both carry units of the same dimension
+        (``"heat.medium.temperature=600 K..660 K in 31"``), or are both plain numbers for
+        dimensionless fields (``"feed.mole_fractions.OX=0.01..0.03 in 5"``,
+        ``"tube.count=100..200 in 3"``). N is the number of evenly spaced values, a whole
+        number >= 1; N = 1 requires START == STOP. The colon form of earlier versions
+        (START:STOP:N) is refused with the new spelling.
 
     Returns
     -------
@@ -230,16 +236,21 @@ def parse_vary(spec):
     """
     where = f"--vary {spec!r}"
     if not isinstance(spec, str) or "=" not in spec:
-        raise CaseError(f'{where}: expected PATH=START:STOP:N, e.g. "heat.coolant_temperature=600 K:660 K:31"')
+        raise CaseError(f"{where}: expected PATH=START..STOP in N, e.g. {_EXAMPLE}")
     path, _, rng = spec.partition("=")
     path = path.strip()
     _split_path(path)
-    pieces = rng.split(":")
-    if len(pieces) != 3:
-        raise CaseError(f"{where}: expected START:STOP:N after '=', got {len(pieces)} part(s) separated by ':'")
-    start_text, stop_text, n_text = (piece.strip() for piece in pieces)
+    match = _RANGE.match(rng)
+    if match is None:
+        pieces = rng.split(":")
+        if len(pieces) == 3 and ".." not in rng:
+            a, b, c = (piece.strip() for piece in pieces)
+            raise CaseError(f"{where}: the START:STOP:N form is no longer accepted; write "
+                            f'"{path}={a}..{b} in {c}" (N evenly spaced values from START to STOP)')
+        raise CaseError(f"{where}: expected START..STOP in N after '=', e.g. {_EXAMPLE}")
+    start_text, stop_text, n_text = (match.group(k).strip() for k in ("start", "stop", "n"))
     if not _INT_TEXT.match(n_text) or int(n_text) < 1:
-        raise CaseError(f"{where}: N = {n_text!r}: must be a whole number >= 1")
+        raise CaseError(f"{where}: N = {n_text!r}: must be a whole number >= 1 (the number of values)")
     n = int(n_text)
     start, start_dim = _parse_end(start_text, where, "START")
     stop, stop_dim = _parse_end(stop_text, where, "STOP")

@@ -13,7 +13,7 @@ A case declares uncertain parameters as::
     factor = 1.5
 
     [[uncertainty]]
-    parameter = "heat.coolant_temperature"
+    parameter = "heat.medium.temperature"
     distribution = "uniform"      # low, high (absolute values)
     low = "600 K"
     high = "700 K"
@@ -111,7 +111,7 @@ def parse_uncertainty(entries, raw, where="uncertainty"):
     """
     if not entries:
         raise CaseError(f'{where}: the case has no [[uncertainty]] entries; add e.g. parameter = '
-                        '"heat.coolant_temperature", distribution = "normal", std = "2 K"')
+                        '"heat.medium.temperature", distribution = "normal", std = "2 K"')
     if not isinstance(entries, list):
         raise CaseError(f"{where}: expected an array of tables [[uncertainty]], got {type(entries).__name__}")
     problems, specs, seen = [], [], set()

@@ -49,8 +49,8 @@ def quote_identifier(name):
 
     Examples
     --------
-    >>> quote_identifier('heat.coolant_temperature')
-    '"heat.coolant_temperature"'
+    >>> quote_identifier('heat.medium.temperature')
+    '"heat.medium.temperature"'
     """
     if not isinstance(name, str) or not name or "\x00" in name:
         raise ValueError(f"column name {name!r}: must be non-empty text without NUL characters")
