@@ -2,7 +2,9 @@
 
 The wheel is built from a copy of the source tree (so nothing is written into the
 checkout), installed with ``--no-deps`` into a fresh virtual environment that sees
-the heavy dependencies through ``--system-site-packages``, and run from a folder
+the heavy dependencies of the running interpreter through a ``.pth`` file listing its
+site-packages folders (``--system-site-packages`` would show the base interpreter's
+packages, not those of a virtual environment the tests run in), and run from a folder
 outside the checkout. The checks make sure the installed copy, not the editable
 checkout, is what ran: ``simulator.__file__`` and the template folder lie inside
 the virtual environment, and a marker written into the installed stylesheet shows
@@ -10,6 +12,7 @@ up in the report. Measured: about 20 s in all (build 3 s, venv 4 s, report 9 s).
 """
 import os
 import shutil
+import site
 import subprocess
 import sys
 from pathlib import Path
@@ -42,8 +45,14 @@ def venv_python(tmp_path_factory):
     _run([sys.executable, "-m", "build", "--wheel", "--outdir", str(work / "dist"), str(source)], cwd=work)
     wheels = sorted((work / "dist").glob("tubesim-*.whl"))
     assert len(wheels) == 1
-    _run([sys.executable, "-m", "venv", "--system-site-packages", str(work / "venv")], cwd=work)
+    _run([sys.executable, "-m", "venv", str(work / "venv")], cwd=work)
     python = work / "venv" / "bin" / "python"
+    purelib = _run([str(python), "-c", "import sysconfig; print(sysconfig.get_paths()['purelib'])"],
+                   cwd=work).strip().splitlines()[-1]
+    # the running interpreter's own site-packages (its virtual environment's, if any), after the
+    # nested environment's: the installed wheel is found first, the heavy dependencies next
+    outer = [p for p in site.getsitepackages() + [site.getusersitepackages()] if Path(p).is_dir()]
+    (Path(purelib) / "_outer_site_packages.pth").write_text("\n".join(outer) + "\n", encoding="utf-8")
     _run([str(python), "-m", "pip", "install", "--no-deps", "--no-index", "--force-reinstall", str(wheels[0])],
          cwd=work)
     return python, work
