@@ -547,3 +547,26 @@ def test_minor_species_go_to_a_log_panel():
 def test_mole_fraction_plot_refuses_when_no_species_is_present():
     with pytest.raises(ValueError, match="no species present"):
         plots.mole_fraction_plot([0.0, 1.0], {"A": [0.0, 0.0]})
+
+
+def test_design_numbers_that_are_words_print_without_a_unit():
+    # Regression (issue 10, item 17): "n/a K" and "n/a kPa" in the summary table.
+    from simulator.report.context import _without_units_on_words
+
+    summary = {"numbers": [{"label": "Pressure drop", "value": "n/a", "unit": "kPa"},
+                           {"label": "Hot spot: temperature", "value": "446.7", "unit": "K"},
+                           {"label": "Length to the target", "value": "not reached", "unit": "m"},
+                           {"label": "Hot spot: above the medium", "value": "-3.5", "unit": "K"}],
+               "flags": []}
+    rows = _without_units_on_words(summary)["numbers"]
+    assert [(r["value"], r["unit"]) for r in rows] == [("not available", ""), ("446.7", "K"), ("not reached", ""),
+                                                       ("-3.5", "K")]
+
+
+def test_profile_axis_has_no_offset_text():
+    # Regression (issue 10, item 19): 100 bar with a 0.6 kPa drop read "0.004 ... 0.010" under "+9.99e1".
+    z = np.linspace(0.0, 8.0, 40)
+    texts = _svg_texts(plots.profile_lines_plot(z, {"Absolute pressure": 100.0 - 0.0063 * z / 8.0},
+                                                "Pressure [bar]"))
+    assert not any("e1" in t or t.startswith("+") for t in texts), texts
+    assert any(t.startswith("99.99") for t in texts)

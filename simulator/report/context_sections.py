@@ -32,6 +32,8 @@ _PARAMETER_LABELS = {"feed_mole_fraction": "feed mole fraction of {key}",
 #: A profile that changes by less than this along the tube is a flat line: its plot is left out, [K] and [-]
 FLAT_TEMPERATURE = 0.01
 FLAT_PRESSURE_RELATIVE = 1e-9
+#: Below this share of the inlet pressure the drop itself is plotted, not the absolute pressure, [-]
+SMALL_PRESSURE_DROP = 0.02
 #: A species whose mole fraction stays below this share of the largest one is drawn on the log panel, [-]
 MINOR_SPECIES = 0.1
 _PRESSURE_MODEL_NAMES = {"ergun": "Ergun (packed bed)", "pipe-friction": "pipe-friction (Darcy-Weisbach)"}
@@ -86,10 +88,18 @@ def _pressure_profile(case, result):
         why = ("no pressure-drop model (pressure_drop.model = \"none\")" if pd == "none"
                else "the pressure does not change along the tube")
         return None, f"No pressure plot: {why}; the pressure stays at {fmt(float(P[0]) / 1e5, 5)} bar."
+    model = _PRESSURE_MODEL_NAMES.get(pd, pd)
+    drop = f"drop {fmt((P[0] - P[-1]) / 1e3, 4)} kPa with the {model} model"
+    if float(P[0] - P.min()) < SMALL_PRESSURE_DROP * float(P[0]):
+        # a drop of a fraction of a per cent: absolute pressure would read as a flat line at 100 bar
+        return {"title": "Pressure drop",
+                "uri": plots.profile_lines_plot(result.z, {"Drop below the inlet pressure": (P[0] - P) / 1e3},
+                                                "Pressure drop from the inlet [kPa]"),
+                "caption": f"Pressure below the inlet pressure of {fmt(float(P[0]) / 1e5, 5)} bar; {drop} "
+                           f"({fixed(100.0 * (P[0] - P[-1]) / P[0], 2)} % of the inlet pressure)."}, None
     return {"title": "Pressure",
             "uri": plots.profile_lines_plot(result.z, {"Absolute pressure": P / 1e5}, "Pressure [bar]"),
-            "caption": f"Absolute pressure (1 bar = 100 kPa); drop {fmt((P[0] - P[-1]) / 1e3, 4)} kPa with "
-                       f"the {_PRESSURE_MODEL_NAMES.get(pd, pd)} model."}, None
+            "caption": f"Absolute pressure (1 bar = 100 kPa); {drop}."}, None
 
 
 def _mole_fraction_profile(result):

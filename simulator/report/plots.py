@@ -342,6 +342,8 @@ def profile_lines_plot(z, series, ylabel, title=None, *, xlabel="Axial position 
         ax.set_xlim(z[0], z[-1])
         if log_y:
             ax.set_yscale("log")
+        else:
+            ax.ticklabel_format(axis="y", useOffset=False)   # no "+9.99e1" offset: ticks read as values
         if title:
             ax.set_title(_literal(title))
         ax.legend(loc="best", ncols=2 if len(series) > 4 else 1)
