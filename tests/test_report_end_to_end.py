@@ -217,9 +217,11 @@ def test_flat_profiles_are_left_out_and_the_text_says_why(reports, name):
     section = _section(reports[name][0], "profiles")
     titles = re.findall(r'<span class="fig-title">(.*?)\.</span>', section)
     text = _visible_text(section)
+    numerics = _visible_text(_section(reports[name][0], "numerics"))
     if case.heat.mode == "isothermal":
         assert "Temperature" not in titles and "No temperature plot: the tube is isothermal" in text
         assert "Hot spot" not in text
+        assert "Hot spot located by" not in numerics and "No hot spot: the gas is held at the feed" in numerics
     else:
         assert "Temperature" in titles
     if case.pressure_drop.model == "none":

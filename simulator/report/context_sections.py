@@ -189,7 +189,7 @@ def _assumptions_block(case, assumptions):
         unit_e = "" if e.get("unit") in ("-", None) else f" {e['unit']}"
         ch = e.get("design_change_percent")
         rows.append([f"{_ASSUMPTION_LABELS.get(name, name)}: {e.get('measure', '')}",
-                     fmt(e.get("value"), 3) + (unit_e if _finite(e.get("value")) else ""),
+                     fmt(e.get("value"), 3, "not computed") + (unit_e if _finite(e.get("value")) else ""),
                      fmt(e.get("threshold"), 3) + unit_e,
                      {"level": flag["level"], "text": e.get("verdict", "")},
                      _change(ch) if _finite(ch) else _basis_text(e, assumptions),
@@ -364,7 +364,14 @@ def _numerics_block(case, result, screening):
                           f"{fmt(v, 6)} {'m' if k.endswith('_m') else 'K' if k.endswith('_K') else 'Pa'}"
                           for k, v in event.items())
         paragraphs.append(f"Event {name.replace('_', ' ')}: {where}.")
-    paragraphs.append(f"Hot spot located by: {result.hot_spot.get('located_by', 'n/a')}.")
+    located = result.hot_spot.get("located_by", "not recorded")
+    if case.heat.mode == "isothermal" and float(np.ptp(result.T)) < FLAT_TEMPERATURE:
+        paragraphs.append("No hot spot: the gas is held at the feed temperature (isothermal tube).")
+    elif _exothermic(result):
+        paragraphs.append(f"Hot spot located by: {located}.")
+    else:
+        paragraphs.append(f"Highest temperature (no reaction hot spot: the reaction path is not exothermic) "
+                          f"located by: {located}.")
     if result.extra.get("viscosity"):
         paragraphs.append(f"Gas viscosity: {result.extra['viscosity']}.")
     closure_rows = []
