@@ -28,7 +28,7 @@ ROOT = Path(__file__).resolve().parents[1]
 DEMOS = sorted(p.name for p in (ROOT / "cases").glob("*.toml"))
 PDF_CASE = "hydrogenation_cooled_packed_bed.toml"     # cooled, exothermic: every section filled
 FAST_CASE = "decomposition_empty_tube.toml"          # isothermal: no screening, quick
-#: Context + rendering time of one report with PDF, [s]. The issue asks for <= 3 s on top of the
+#: Context + rendering CPU time of one report with PDF, [s]. The issue asks for <= 3 s on top of the
 #: computations; the bound is loose for a shared 2-core machine and catches only gross regressions
 #: (e.g. a stylesheet rule that made the PDF take 20 s). Common practice, no source.
 RENDER_TIME_BOUND = 10.0
@@ -397,7 +397,8 @@ def test_pdf_pages_headings_running_header_and_figures(reports):
         if resources is not None and "/XObject" in resources:
             images += len(resources["/XObject"])
     assert images >= 6                # 4 profiles + 2 sensitivity plots
-    assert timings["context"] + timings["render"] < RENDER_TIME_BOUND
+    # CPU time of this process: the wall time on a machine shared with other jobs measures the neighbours
+    assert timings["context_cpu"] + timings["render_cpu"] < RENDER_TIME_BOUND
 
 
 def test_pdf_pages_render_to_png(reports, tmp_path):

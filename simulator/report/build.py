@@ -188,7 +188,8 @@ def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timi
         the equivalent ``tubesim report`` command, [-]
     timings : dict, optional
         Filled with the wall time of each step (simulate, assumptions,
-        screening, context, render), [s]
+        screening, context, render) and the CPU time of this process for
+        the context and the rendering (context_cpu, render_cpu), [s]
 
     Returns
     -------
@@ -214,7 +215,7 @@ def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timi
     timings.update(computed["timings"])
     if command_line is None:
         command_line = default_command_line(case_path, out_dir, pdf)
-    started = time.perf_counter()
+    started, started_cpu = time.perf_counter(), time.process_time()
     try:
         context = build_context(case, computed["result"], computed["assumptions"], computed["screening"],
                                 command_line, screening_reason=computed["screening_reason"])
@@ -230,7 +231,9 @@ def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timi
         context["profiles"]["plots"] = list(context["profiles"]["plots"]) + extra
         context["profiles"]["notes"] = list(context["profiles"]["notes"]) + sentences
     timings["context"] = time.perf_counter() - started
-    started = time.perf_counter()
+    timings["context_cpu"] = time.process_time() - started_cpu
+    started, started_cpu = time.perf_counter(), time.process_time()
     written = write_report(context, Path(out_dir), pdf=pdf)
     timings["render"] = time.perf_counter() - started
+    timings["render_cpu"] = time.process_time() - started_cpu
     return written

@@ -18,8 +18,11 @@ This module and four ``context_*`` modules, one job each, build the context
   verdict flags, with the verdict rules in its docstring;
 * :mod:`simulator.report.context_sections`: profiles, assumptions, screening
   and numerics sections;
-* this module: cautions, references, provenance and the assembly
-  (:func:`build_context`).
+* :mod:`simulator.report.context_uncertainty`: sentences on an uncertainty
+  run found in the output folder (added by :mod:`simulator.report.build`);
+* this module: cautions (the full list and the short one next to the
+  summary verdicts), references, provenance, the validation appendix (one row
+  per published source) and the assembly (:func:`build_context`).
 """
 import datetime as _dt
 import hashlib
