@@ -22,13 +22,13 @@ from simulator.errors import CaseError
 from simulator.report import html as report_html
 from simulator.report import pdf as report_pdf
 from simulator.report.build import write_design_report
-from simulator.report.validation import collect_published_checks, published_checks, snapshot_text
+from simulator.report.validation import collect_published_checks, internal_notes, published_checks, snapshot_text
 
 ROOT = Path(__file__).resolve().parents[1]
 DEMOS = sorted(p.name for p in (ROOT / "cases").glob("*.toml"))
 PDF_CASE = "hydrogenation_cooled_packed_bed.toml"     # cooled, exothermic: every section filled
 FAST_CASE = "decomposition_empty_tube.toml"          # isothermal: no screening, quick
-#: Context + rendering time of one report with PDF, [s]. The issue asks for <= 3 s on top of the
+#: Context + rendering CPU time of one report with PDF, [s]. The issue asks for <= 3 s on top of the
 #: computations; the bound is loose for a shared 2-core machine and catches only gross regressions
 #: (e.g. a stylesheet rule that made the PDF take 20 s). Common practice, no source.
 RENDER_TIME_BOUND = 10.0
@@ -120,11 +120,12 @@ def test_sections_in_order_with_their_headings(reports, name):
     document = reports[name][0]
     positions = [document.index(f'<section id="{key}">') for key, _ in report_html.SECTIONS]
     assert positions == sorted(positions)
-    headings = re.findall(r"<h2>(.*?)</h2>", document)
+    headings = re.findall(r"<h2[^>]*>(.*?)</h2>", document)
     assert headings == [title for _, title in report_html.SECTIONS]
     assert [t for _, t in report_html.SECTIONS] == [
         "Summary", "Inputs", "Axial profiles", "Assumption check", "Runaway screening",
-        "Numerics and conservation", "Validation", "Cautions", "References", "Provenance"]
+        "Numerics and conservation", "Cautions", "References", "Provenance",
+        "Appendix: validation against published sources"]
 
 
 @pytest.mark.parametrize("name", DEMOS)
@@ -209,6 +210,28 @@ def test_inputs_show_every_case_value_as_written_and_in_si(reports, name):
 
 
 @pytest.mark.parametrize("name", DEMOS)
+def test_flat_profiles_are_left_out_and_the_text_says_why(reports, name):
+    # Regression (issue 10, item 19): an isothermal tube got a flat temperature plot with a "hot spot" at
+    # the inlet, and a tube without pressure drop a flat pressure plot.
+    case = load_case(ROOT / "cases" / name)
+    section = _section(reports[name][0], "profiles")
+    titles = re.findall(r'<span class="fig-title">(.*?)\.</span>', section)
+    text = _visible_text(section)
+    numerics = _visible_text(_section(reports[name][0], "numerics"))
+    if case.heat.mode == "isothermal":
+        assert "Temperature" not in titles and "No temperature plot: the tube is isothermal" in text
+        assert "Hot spot" not in text
+        assert "Hot spot located by" not in numerics and "No hot spot: the gas is held at the feed" in numerics
+    else:
+        assert "Temperature" in titles
+    if case.pressure_drop.model == "none":
+        assert "Pressure" not in titles and "No pressure plot: no pressure-drop model" in text
+    else:
+        assert {"Pressure", "Pressure drop"} & set(titles)
+    assert "Mole fractions" in titles and f"Conversion of {case.design.key_species}" in titles
+
+
+@pytest.mark.parametrize("name", DEMOS)
 def test_assumption_levels_in_the_report_are_the_json_levels(reports, name):
     # one rule: the report shows the level assumptions.json carries (simulator.verdicts)
     from simulator.assumptions import check_assumptions
@@ -258,8 +281,55 @@ def test_references_provenance_and_validation(reports, name):
     assert f"tubesim report cases/{name} --out out" in provenance
     validation = _visible_text(_section(document, "validation"))
     for check in published_checks():
-        assert f"[{check['key']}]" in validation, check["key"]
-        assert check["check"] in validation
+        assert f"[{check['key']}] {check['citation']}" in validation, check["key"]
+        assert check["compared"] in validation, check["key"]
+
+
+@pytest.mark.parametrize("name", DEMOS)
+def test_validation_appendix_names_sources_and_comparisons_not_internal_notes(reports, name):
+    # Regression (issue 10, item 18): the table printed "from memory", "check-values 2a", the path of
+    # a reference note and test names ("Lhhw rate equals the hand formula"), and stood before the
+    # cautions. It is now an appendix after the provenance with one row per source.
+    document = reports[name][0]
+    validation = _visible_text(_section(document, "validation"))
+    assert internal_notes(validation) == [], internal_notes(validation)
+    for check in published_checks():
+        assert check["test"].split("::")[-1] not in validation
+    assert "Lhhw rate equals" not in validation and "runaway.md" not in validation
+    rows = re.findall(r"<tr><td><span class=\"ref-key\">\[(.*?)\]</span>", _section(document, "validation"))
+    assert rows == list(dict.fromkeys(c["key"] for c in published_checks()))   # one row per source
+    assert document.index('<section id="provenance">') < document.index('<section id="validation"')
+
+
+def test_report_text_of_every_source_is_free_of_internal_notes():
+    # Every source a marker names prints a published citation and what was compared; a new source key
+    # without report_citation/compared in tests/sources.toml falls back to citation/used and fails here
+    # if those carry notes ("from memory", file paths, test names).
+    for check in published_checks():
+        assert check["compared"], check["key"]
+        assert internal_notes(check["citation"]) == [], (check["key"], check["citation"])
+        assert internal_notes(check["compared"]) == [], (check["key"], check["compared"])
+
+
+@pytest.mark.parametrize("name", DEMOS)
+def test_key_cautions_stand_right_after_the_summary_verdicts(reports, name):
+    # Regression (issue 10, item 18): the cautions stood only at the end, pages after the verdicts.
+    document = reports[name][0]
+    summary = _section(document, "summary")
+    verdicts, cautions = summary.index("<h3>Verdicts</h3>"), summary.index("<h3>Cautions</h3>")
+    assert verdicts < cautions
+    key = _visible_text(summary[cautions:])
+    assert _visible_text(report_html.STANDARD_CAUTIONS[0]) in key
+    full = _visible_text(_section(document, "cautions"))
+    for extra in re.findall(r"<li>(.*?)</li>", summary[cautions:], flags=re.S):
+        assert _visible_text(extra).strip() in full          # the full list keeps every caution
+
+
+def test_internal_notes_finds_what_the_report_must_not_print():
+    assert internal_notes("eq. 5.21 from memory") == ["from memory"]
+    assert internal_notes("hand value of check-values 2b") == ["check-values"]
+    assert internal_notes("(shared/reference/runaway.md, section 2)") == [".md"]
+    assert internal_notes("S. Ergun, 'Fluid flow through packed columns', Chem. Eng. Prog. 48(2), 89-94, 1952") == []
 
 
 def test_validation_snapshot_equals_the_test_markers():
@@ -271,12 +341,13 @@ def test_validation_snapshot_equals_the_test_markers():
     assert snapshot_text(live) == (ROOT / "simulator" / "report" / "validated_checks.py").read_text()
     sources = tomllib.loads((ROOT / "tests" / "sources.toml").read_text())
     assert live and all(row["key"] in sources for row in live)
-    assert all(sources[row["key"]]["citation"] in row["source"] for row in live)
+    for row in live:
+        entry = sources[row["key"]]
+        assert row["citation"] == entry.get("report_citation", entry["citation"])
+        assert row["compared"] == entry.get("compared", entry["used"])
 
 
 def test_marker_parser_reads_decorators_classes_and_pytestmark(tmp_path):
-    (tmp_path / "sources.toml").write_text('[a2000]\ncitation = "A. Author, Title, 2000"\nused = "x"\n'
-                                           '[b2001]\ncitation = "B. Author, Other, 2001"\nused = "y"\n')
     (tmp_path / "test_x.py").write_text(
         '"""Module about things."""\nimport pytest\n'
         'pytestmark = pytest.mark.published("b2001", "whole module")\n\n'
@@ -285,12 +356,17 @@ def test_marker_parser_reads_decorators_classes_and_pytestmark(tmp_path):
         'class TestThing:\n    @pytest.mark.published(key="a2000", where="eq. 4")\n'
         '    def test_inner(self):\n        pass\n\n'
         'def test_unmarked():\n    pass\n')
+    (tmp_path / "sources.toml").write_text('[a2000]\ncitation = "A. Author, Title, 2000 (from memory)"\nused = "x"\n'
+                                           'report_citation = "A. Author, Title, 2000"\n'
+                                           'compared = "pressure against the printed table"\n'
+                                           '[b2001]\ncitation = "B. Author, Other, 2001"\nused = "y"\n')
     rows = collect_published_checks(tmp_path)
     assert [(r["key"], r["where"]) for r in rows] == [("b2001", "whole module"), ("a2000", "Table 3, run 2"),
                                                       ("a2000", "eq. 4")]
-    assert rows[0]["check"] == "Module about things."
-    assert rows[1]["check"] == "Pressure at 0.5 m"
-    assert rows[1]["source"] == "A. Author, Title, 2000 \u2014 Table 3, run 2"
+    assert (rows[0]["citation"], rows[0]["compared"]) == ("B. Author, Other, 2001", "y")   # fallback
+    assert (rows[1]["citation"], rows[1]["compared"]) == ("A. Author, Title, 2000",
+                                                          "pressure against the printed table")
+    assert rows[0]["test"] == f"{tmp_path.name}/test_x.py"
     assert rows[2]["test"] == "tmp_path_name/test_x.py::test_inner".replace("tmp_path_name", tmp_path.name)
 
 
@@ -301,8 +377,10 @@ def test_pdf_pages_headings_running_header_and_figures(reports):
     texts = _page_texts(pdf_bytes)
     assert len(texts) >= 5
     whole = " ".join(texts)
-    positions = [whole.index(f"{i}. {title}") for i, (_, title) in enumerate(report_html.SECTIONS, start=1)
-                 if f"{i}. {title}" in whole]
+    numbered = [title for key, title in report_html.SECTIONS if key not in report_html.APPENDICES]
+    headings = [f"{i}. {title}" for i, title in enumerate(numbered, start=1)]
+    headings += [f"A. {title}" for key, title in report_html.SECTIONS if key in report_html.APPENDICES]
+    positions = [whole.index(h) for h in headings if h in whole]
     assert len(positions) == len(report_html.SECTIONS) and positions == sorted(positions)
     case = load_case(ROOT / "cases" / PDF_CASE)
     generated = re.search(r'<td class="run-date">(.*?)</td>', document).group(1)
@@ -319,7 +397,8 @@ def test_pdf_pages_headings_running_header_and_figures(reports):
         if resources is not None and "/XObject" in resources:
             images += len(resources["/XObject"])
     assert images >= 6                # 4 profiles + 2 sensitivity plots
-    assert timings["context"] + timings["render"] < RENDER_TIME_BOUND
+    # CPU time of this process: the wall time on a machine shared with other jobs measures the neighbours
+    assert timings["context_cpu"] + timings["render_cpu"] < RENDER_TIME_BOUND
 
 
 def test_pdf_pages_render_to_png(reports, tmp_path):

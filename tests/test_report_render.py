@@ -155,7 +155,7 @@ def build_context(title="Oxidation tube T-101, base case", text=None):
                                           _si_row("E", "110 kJ/mol", "1.1e5", "J/mol",
                                                   key="name")]}],
         },
-        "profiles": {"plots": profile_plots},
+        "profiles": {"plots": profile_plots, "notes": [t("No pressure plot: constant.")]},
         "assumptions": {
             "available": True, "reason_if_not": "",
             "paragraphs": [t("Textbook model: isothermal, constant density, no pressure drop.")],
@@ -187,9 +187,12 @@ def build_context(title="Oxidation tube T-101, base case", text=None):
             "plots": [],
             "warnings": [t("ergun1952 used at Re_p = 12000 above its stated range.")],
         },
-        "validation": [{"check": t("Isothermal first-order conversion"), "source": "closed form"},
-                       {"check": "Ergun pressure gradient", "source": t("S. Ergun, 1952")}],
+        "validation": [{"key": "closed_form", "source": "closed form", "count": 2,
+                        "compared": t("Isothermal first-order conversion")},
+                       {"key": "ergun1952", "source": t("S. Ergun, 1952"), "count": 1,
+                        "compared": "Ergun pressure gradient"}],
         "cautions": list(report_html.STANDARD_CAUTIONS) + [t("Case-specific caution.")],
+        "key_cautions": [report_html.STANDARD_CAUTIONS[0], t("Case-specific caution.")],
         "references": [{"key": "ergun1952",
                         "text": t("S. Ergun, 'Fluid flow through packed columns', 1952.")}],
         "provenance": [{"label": "Case file SHA-256", "value": "ab" * 32},
@@ -442,7 +445,8 @@ def test_plots_are_deterministic_and_black_and_white_readable():
     assert first == second
     svg = _svg(first)
     assert "stroke-dasharray" in svg                        # series differ by line style
-    assert "Hot spot: " in svg and "Temperature limit" in svg
+    assert "Hot spot: " in svg
+    assert ("Limit 800.0 K, off the scale above" if plots.limit_is_far(800.0, T) else "Temperature limit") in svg
 
 
 def test_temperature_plot_in_degC_labels_axis():
@@ -473,3 +477,96 @@ def test_running_header_text_is_shortened_copy(context):
     header = re.search(r'<p class="run-title" aria-hidden="true">([^<]*)</p>', html).group(1)
     assert len(header) <= 110 and header.endswith("\u2026")
     assert f'<h1 class="doc-title">{ctx["title"]}</h1>' in html      # full title in the body
+
+
+# ----------------------------------------------------------------------------- scaled to the data (issue 10, item 19)
+def _svg_texts(uri):
+    import base64
+    import re
+
+    svg = base64.b64decode(uri.split(",", 1)[1]).decode("utf-8")
+    return re.findall(r"<text[^>]*>([^<]*)</text>", svg)
+
+
+def _tick_values(texts):
+    values = []
+    for text in texts:
+        try:
+            values.append(float(text.replace("\u2212", "-")))
+        except ValueError:
+            pass
+    return values
+
+
+def test_temperature_axis_is_scaled_to_the_data_and_a_far_limit_is_an_arrow():
+    # Regression: a 27 K hot spot under a 650 K limit was a small bump on an axis stretched to 650 K.
+    z = np.linspace(0.0, 4.0, 60)
+    T = 420.0 + 27.0 * np.exp(-(((z - 0.3) / 0.3) ** 2))
+    texts = _svg_texts(plots.profile_temperature_plot(z, T, medium_T=420.0, hot_spot=(0.3, 447.0),
+                                                      temperature_limit=650.0))
+    ticks = [v for v in _tick_values(texts) if v > 100.0]          # temperature ticks, not z ticks
+    assert ticks and max(ticks) <= 460.0 and min(ticks) >= 400.0
+    assert "Limit 650.0 K, off the scale above (arrow)" in texts
+    assert "Temperature limit" not in texts
+
+
+def test_a_limit_near_the_data_is_drawn_as_a_line_on_the_axis():
+    z = np.linspace(0.0, 4.0, 60)
+    T = 420.0 + 27.0 * np.exp(-(((z - 0.3) / 0.3) ** 2))
+    texts = _svg_texts(plots.profile_temperature_plot(z, T, medium_T=420.0, hot_spot=(0.3, 447.0),
+                                                      temperature_limit=460.0))
+    assert "Temperature limit" in texts
+    assert max(v for v in _tick_values(texts) if v > 100.0) >= 460.0
+
+
+@pytest.mark.parametrize(("limit", "far"), [(650.0, True), (460.0, False), (474.0, False), (475.0, True),
+                                            (380.0, True), (400.0, False)])
+def test_limit_is_far_when_farther_than_the_data_span(limit, far):
+    # data 420..447 K: span 27 K; a limit within 27 K of the data stays on the axis
+    assert plots.limit_is_far(limit, np.array([420.0, 447.0, 430.0])) is far
+
+
+def test_flat_profile_keeps_a_ten_kelvin_reach():
+    assert plots.limit_is_far(915.0, np.full(5, 900.0)) is True
+    assert plots.limit_is_far(905.0, np.full(5, 900.0)) is False
+
+
+def test_minor_species_go_to_a_log_panel():
+    # Regression: species at a few per cent hugged zero on one linear axis scaled to N2 at 0.8.
+    z = np.linspace(0.0, 1.0, 30)
+    fractions = {"N2": np.full(30, 0.8), "H2": 0.15 - 0.05 * z, "C2H4": 0.05 * np.exp(-4 * z),
+                 "C2H6": 0.05 * (1 - np.exp(-4 * z)), "AR": np.zeros(30)}
+    assert plots.split_minor_species(fractions) == (["N2", "H2"], ["C2H4", "C2H6"], ["AR"])
+    texts = _svg_texts(plots.mole_fraction_plot(z, fractions))
+    assert "Mole fraction [-] (log)" in texts and "Mole fraction [-]" in texts
+    assert "AR" not in texts
+    one = _svg_texts(plots.mole_fraction_plot(z, {"N2": np.full(30, 0.5), "O2": np.full(30, 0.5)}))
+    assert "Mole fraction [-] (log)" not in one
+
+
+def test_mole_fraction_plot_refuses_when_no_species_is_present():
+    with pytest.raises(ValueError, match="no species present"):
+        plots.mole_fraction_plot([0.0, 1.0], {"A": [0.0, 0.0]})
+
+
+def test_design_numbers_that_are_words_print_without_a_unit():
+    # Regression (issue 10, item 17): "n/a K" and "n/a kPa" in the summary table.
+    from simulator.report.context import _without_units_on_words
+
+    summary = {"numbers": [{"label": "Pressure drop", "value": "n/a", "unit": "kPa"},
+                           {"label": "Hot spot: temperature", "value": "446.7", "unit": "K"},
+                           {"label": "Length to the target", "value": "not reached", "unit": "m"},
+                           {"label": "Hot spot: above the medium", "value": "-3.5", "unit": "K"}],
+               "flags": []}
+    rows = _without_units_on_words(summary)["numbers"]
+    assert [(r["value"], r["unit"]) for r in rows] == [("not available", ""), ("446.7", "K"), ("not reached", ""),
+                                                       ("-3.5", "K")]
+
+
+def test_profile_axis_has_no_offset_text():
+    # Regression (issue 10, item 19): 100 bar with a 0.6 kPa drop read "0.004 ... 0.010" under "+9.99e1".
+    z = np.linspace(0.0, 8.0, 40)
+    texts = _svg_texts(plots.profile_lines_plot(z, {"Absolute pressure": 100.0 - 0.0063 * z / 8.0},
+                                                "Pressure [bar]"))
+    assert not any("e1" in t or t.startswith("+") for t in texts), texts
+    assert any(t.startswith("99.99") for t in texts)

@@ -104,6 +104,21 @@ SWEEP_FIGURES = (
 )
 
 
+def _meta_of_this_case(case, out_dir):
+    """Meta of the results store in ``out_dir`` if it was computed from this very case file, else None."""
+    from simulator.sweeps.execute import fingerprint
+    from simulator.sweeps.store import ResultsStore
+
+    store = out_dir / "results.sqlite"
+    if not store.exists():
+        return None
+    try:
+        meta = ResultsStore.read_meta(store)
+    except Exception:  # noqa: BLE001 - an unreadable store: leave its results out
+        return None
+    return meta if meta.get("case_sha256") == fingerprint(case.raw) else None
+
+
 def sweep_figures(case, out_dir):
     """Plots of a sweep or uncertainty run found in ``out_dir`` for this very case, as report plots.
 
@@ -113,17 +128,7 @@ def sweep_figures(case, out_dir):
     """
     import base64
 
-    from simulator.sweeps.execute import fingerprint
-    from simulator.sweeps.store import ResultsStore
-
-    store = out_dir / "results.sqlite"
-    if not store.exists():
-        return []
-    try:
-        meta = ResultsStore.read_meta(store)
-    except Exception:  # noqa: BLE001 - an unreadable store: leave the figures out
-        return []
-    if meta.get("case_sha256") != fingerprint(case.raw):
+    if _meta_of_this_case(case, out_dir) is None:
         return []
     plots = []
     for name, title, caption in SWEEP_FIGURES:
@@ -132,6 +137,39 @@ def sweep_figures(case, out_dir):
             uri = "data:image/svg+xml;base64," + base64.b64encode(path.read_bytes()).decode("ascii")
             plots.append({"title": title, "uri": uri, "caption": caption})
     return plots
+
+
+def uncertainty_text(case, out_dir):
+    """Sentences on the uncertainty run in ``out_dir`` for this very case (empty if there is none).
+
+    Read from ``uncertainty.json`` only when the results store beside it holds an
+    uncertainty run of this case file (:func:`sweep_figures` applies the same check).
+
+    Parameters
+    ----------
+    case : simulator.case.schema.Case
+        The case of the report, [-]
+    out_dir : pathlib.Path
+        Output folder of the report, [-]
+
+    Returns
+    -------
+    list of str
+        :func:`simulator.report.context_uncertainty.uncertainty_paragraphs`, or [], [-]
+    """
+    import json
+
+    from simulator.report.context_uncertainty import uncertainty_paragraphs
+
+    meta = _meta_of_this_case(case, out_dir)
+    path = out_dir / "uncertainty.json"
+    if meta is None or meta.get("command") != "uncertainty" or not path.exists():
+        return []
+    try:
+        data = json.loads(path.read_text(encoding="utf-8"))
+    except (OSError, ValueError):
+        return []
+    return uncertainty_paragraphs(data) if isinstance(data, dict) else []
 
 
 def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timings=None):
@@ -150,7 +188,8 @@ def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timi
         the equivalent ``tubesim report`` command, [-]
     timings : dict, optional
         Filled with the wall time of each step (simulate, assumptions,
-        screening, context, render), [s]
+        screening, context, render) and the CPU time of this process for
+        the context and the rendering (context_cpu, render_cpu), [s]
 
     Returns
     -------
@@ -176,7 +215,7 @@ def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timi
     timings.update(computed["timings"])
     if command_line is None:
         command_line = default_command_line(case_path, out_dir, pdf)
-    started = time.perf_counter()
+    started, started_cpu = time.perf_counter(), time.process_time()
     try:
         context = build_context(case, computed["result"], computed["assumptions"], computed["screening"],
                                 command_line, screening_reason=computed["screening_reason"])
@@ -184,11 +223,17 @@ def write_design_report(case_path, out_dir, pdf=True, command_line=None, *, timi
         raise
     except (KeyError, TypeError, ValueError, ArithmeticError) as err:
         raise ReportError(f"report context of {case_path}: {type(err).__name__}: {err}") from err
-    extra = sweep_figures(case, Path(out_dir))
-    if extra and context["screening"]["available"]:
+    extra, sentences = sweep_figures(case, Path(out_dir)), uncertainty_text(case, Path(out_dir))
+    if context["screening"]["available"]:
         context["screening"]["plots"] = list(context["screening"]["plots"]) + extra
+        context["screening"]["paragraphs"] = list(context["screening"]["paragraphs"]) + sentences
+    else:       # not screened (e.g. an adiabatic tube): the results go with the profiles
+        context["profiles"]["plots"] = list(context["profiles"]["plots"]) + extra
+        context["profiles"]["notes"] = list(context["profiles"]["notes"]) + sentences
     timings["context"] = time.perf_counter() - started
-    started = time.perf_counter()
+    timings["context_cpu"] = time.process_time() - started_cpu
+    started, started_cpu = time.perf_counter(), time.process_time()
     written = write_report(context, Path(out_dir), pdf=pdf)
     timings["render"] = time.perf_counter() - started
+    timings["render_cpu"] = time.process_time() - started_cpu
     return written

@@ -18,8 +18,11 @@ This module and four ``context_*`` modules, one job each, build the context
   verdict flags, with the verdict rules in its docstring;
 * :mod:`simulator.report.context_sections`: profiles, assumptions, screening
   and numerics sections;
-* this module: cautions, references, provenance and the assembly
-  (:func:`build_context`).
+* :mod:`simulator.report.context_uncertainty`: sentences on an uncertainty
+  run found in the output folder (added by :mod:`simulator.report.build`);
+* this module: cautions (the full list and the short one next to the
+  summary verdicts), references, provenance, the validation appendix (one row
+  per published source) and the assembly (:func:`build_context`).
 """
 import datetime as _dt
 import hashlib
@@ -68,6 +71,21 @@ def _cautions(case, result, screening, reason, data):
     if any("data range" in str(w) for w in result.warnings):
         out.append("Some species properties were extrapolated beyond their data range; see Numerics.")
     return out
+
+
+def _key_cautions(cautions, screening):
+    """The cautions printed next to the summary verdicts: the standing caution, and the case's own.
+
+    The first standard caution (model limits, defer to licensed engineering
+    practice and local codes) always; the one on runaway criteria when the
+    screening was evaluated; then every caution added for this case.
+    """
+    from simulator.report.html import STANDARD_CAUTIONS
+
+    out = [STANDARD_CAUTIONS[0]]
+    if screening is not None:
+        out.append(STANDARD_CAUTIONS[1])
+    return out + [c for c in cautions if c not in STANDARD_CAUTIONS]
 
 
 def _references(case, result, assumptions, screening):
@@ -135,16 +153,34 @@ def _provenance(case, result, generated, command_line):
 
 
 def _validation_rows(checks):
-    """One row per source: every check of that source with where it is in the source."""
+    """One row per published source: its citation, what was compared, and how many checks.
+
+    Only the report's text of each source is printed (``citation`` and
+    ``compared`` of :func:`simulator.report.validation.published_checks`); the
+    markers' internal notes and test names are not.
+    """
     by_key = {}
     for c in checks:
-        key = c.get("key", c["source"])
-        row = by_key.setdefault(key, {"checks": [], "source": c.get("citation", c["source"])})
-        item = f"{c['check']} ({c['where']})" if c.get("where") else c["check"]
-        if item not in row["checks"]:
-            row["checks"].append(item)
-    return [{"check": "; ".join(row["checks"]), "source": f"[{key}] {row['source']}"}
-            for key, row in by_key.items()]
+        row = by_key.setdefault(c["key"], {"key": c["key"], "source": c["citation"], "compared": c["compared"],
+                                           "count": 0})
+        row["count"] += 1
+    return list(by_key.values())
+
+
+def _without_units_on_words(summary):
+    """A design number that is not a number ("n/a", "not reached") is printed without a unit.
+
+    Parameters
+    ----------
+    summary : dict
+        ``{numbers, flags}`` of the summary; changed in place and returned, [-]
+    """
+    for row in summary["numbers"]:
+        value = str(row["value"]).strip()
+        if not any(ch.isdigit() for ch in value):
+            row["value"] = "not available" if value in ("n/a", "") else value
+            row["unit"] = ""
+    return summary
 
 
 # ----------------------------------------------------------------------------- driver
@@ -184,20 +220,22 @@ def build_context(case, result, assumptions=None, screening=None, command_line="
     source = Path(case.source_path).name if case.source_path else "(dict)"
     checks = published_checks()
     numerics = _numerics_block(case, result, screening)
+    cautions = _cautions(case, result, screening, screening_reason, data)
     return {
         "title": case.title or source,
         "case_name": Path(source).stem,
         "case_file": case.source_path or "(none)",
         "generated": stamp,
         "tool_version": result.versions.get("tubesim", "n/a"),
-        "summary": _summary(case, result, assumptions, screening, screening_reason),
+        "summary": _without_units_on_words(_summary(case, result, assumptions, screening, screening_reason)),
         "inputs": inputs,
         "profiles": _profiles(case, result),
         "assumptions": _assumptions_block(case, assumptions),
         "screening": _screening_block(case, result, screening, screening_reason),
         "numerics": numerics,
         "validation": _validation_rows(checks),
-        "cautions": _cautions(case, result, screening, screening_reason, data),
+        "cautions": cautions,
+        "key_cautions": _key_cautions(cautions, screening),
         "references": _references(case, result, assumptions, screening),
         "provenance": _provenance(case, result, stamp, command_line),
     }

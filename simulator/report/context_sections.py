@@ -18,6 +18,7 @@ from simulator.report.context_verdicts import (
     _assumption_flag,
     _basis_text,
     _design_quantity,
+    _exothermic,
     _runaway_flag,
     _screening_reason,
 )
@@ -28,49 +29,118 @@ _PARAMETER_LABELS = {"feed_mole_fraction": "feed mole fraction of {key}",
 
 
 # ----------------------------------------------------------------------------- profiles
-def _profiles(case, result):
+#: A profile that changes by less than this along the tube is a flat line: its plot is left out, [K] and [-]
+FLAT_TEMPERATURE = 0.01
+FLAT_PRESSURE_RELATIVE = 1e-9
+#: Below this share of the inlet pressure the drop itself is plotted, not the absolute pressure, [-]
+SMALL_PRESSURE_DROP = 0.02
+#: A species whose mole fraction stays below this share of the largest one is drawn on the log panel, [-]
+MINOR_SPECIES = 0.1
+_PRESSURE_MODEL_NAMES = {"ergun": "Ergun (packed bed)", "pipe-friction": "pipe-friction (Darcy-Weisbach)"}
+
+
+def _temperature_profile(case, result, exothermic):
+    """(plot or None, note when left out) of the temperature profile."""
     from simulator.report import plots
 
-    z = result.z
-    key = case.design.key_species
+    z, T = result.z, np.asarray(result.T, dtype=float)
     cooled = case.heat.exchange
+    if not cooled and float(np.ptp(T)) < FLAT_TEMPERATURE:
+        how = ("the tube is isothermal (heat.mode = \"isothermal\")" if case.heat.mode == "isothermal"
+               else "the temperature does not change along the tube")
+        return None, f"No temperature plot: {how}; the gas stays at {fixed(float(T[0]))} K from inlet to outlet."
     hot = result.hot_spot
     target = result.design.get("length_m") if result.design.get("reached") else None
     limit = case.design.temperature_limit if _finite(case.design.temperature_limit) else None
     medium = "Medium temperature"
+    name = "Hot spot" if exothermic else "Highest temperature"
     uri = plots.profile_temperature_plot(
-        z, result.T, medium_T=result.Tc if cooled else None,
+        z, T, medium_T=result.Tc if cooled else None,
         hot_spot=(hot["position_m"], hot["temperature_K"]), temperature_limit=limit,
-        target_position=target, medium_label=medium)
-    parts = [f"Process (bed) temperature along the tube; star: highest temperature {fixed(hot['temperature_K'])} K "
+        target_position=target, medium_label=medium, hot_spot_label=name)
+    parts = [f"Process (bed) temperature along the tube; star: {name.lower()} {fixed(hot['temperature_K'])} K "
              f"at z = {fmt(hot['position_m'], 3)} m ({hot['located_by']})."]
     if cooled:
         parts.append(f"{medium}: the medium on the other side of the wall ({case.heat.arrangement}).")
-    parts.append(f"Dashed horizontal line: temperature limit {fixed(limit)} K." if limit is not None
-                 else "No temperature limit is given (design.temperature_limit).")
+    if limit is None:
+        parts.append("No temperature limit is given (design.temperature_limit).")
+    else:
+        shown = [T] + ([np.asarray(result.Tc, dtype=float)] if cooled else [])
+        if plots.limit_is_far(limit, np.concatenate(shown)):
+            gap = limit - float(hot["temperature_K"])
+            parts.append(f"The temperature limit {fixed(limit)} K lies off the scale, {fixed(abs(gap))} K "
+                         f"{'above' if gap > 0 else 'below'} the {name.lower()} (arrow at the edge); the axis "
+                         f"is scaled to the profiles.")
+        else:
+            parts.append(f"Dashed horizontal line: temperature limit {fixed(limit)} K.")
     if target is not None:
         parts.append(f"Dotted vertical line: target conversion reached at z = {fmt(target, 4)} m.")
-    out = [{"title": "Temperature", "uri": uri, "caption": " ".join(parts)}]
-    X = result.conversion
-    out.append({"title": f"Conversion of {key}",
-                "uri": plots.profile_lines_plot(z, {f"Conversion of {key}": X}, "Conversion [-]"),
-                "caption": f"Conversion of the key species {key}; outlet {fixed(X[-1], 4)}"
-                           + (f", target {fmt(result.design['target_conversion'], 4)}."
-                              if result.design.get("target_conversion") is not None else ".")})
-    P_bar = result.P / 1e5
+    return {"title": "Temperature", "uri": uri, "caption": " ".join(parts)}, None
+
+
+def _pressure_profile(case, result):
+    """(plot or None, note when left out) of the pressure profile."""
+    from simulator.report import plots
+
+    P = np.asarray(result.P, dtype=float)
     pd = case.pressure_drop.model
-    out.append({"title": "Pressure",
-                "uri": plots.profile_lines_plot(z, {"Absolute pressure": P_bar}, "Pressure [bar]"),
-                "caption": (f"Absolute pressure (1 bar = 100 kPa); drop {fmt((result.P[0] - result.P[-1]) / 1e3, 4)} "
-                            f"kPa with the {pd} model." if pd != "none" else
-                            "Absolute pressure (1 bar = 100 kPa); constant: no pressure-drop model "
-                            "(pressure_drop.model = \"none\").")})
+    if float(np.ptp(P)) <= FLAT_PRESSURE_RELATIVE * float(P[0]):
+        why = ("no pressure-drop model (pressure_drop.model = \"none\")" if pd == "none"
+               else "the pressure does not change along the tube")
+        return None, f"No pressure plot: {why}; the pressure stays at {fmt(float(P[0]) / 1e5, 5)} bar."
+    model = _PRESSURE_MODEL_NAMES.get(pd, pd)
+    drop = f"drop {fmt((P[0] - P[-1]) / 1e3, 4)} kPa with the {model} model"
+    if float(P[0] - P.min()) < SMALL_PRESSURE_DROP * float(P[0]):
+        # a drop of a fraction of a per cent: absolute pressure would read as a flat line at 100 bar
+        return {"title": "Pressure drop",
+                "uri": plots.profile_lines_plot(result.z, {"Drop below the inlet pressure": (P[0] - P) / 1e3},
+                                                "Pressure drop from the inlet [kPa]"),
+                "caption": f"Pressure below the inlet pressure of {fmt(float(P[0]) / 1e5, 5)} bar; {drop} "
+                           f"({fixed(100.0 * (P[0] - P[-1]) / P[0], 2)} % of the inlet pressure)."}, None
+    return {"title": "Pressure",
+            "uri": plots.profile_lines_plot(result.z, {"Absolute pressure": P / 1e5}, "Pressure [bar]"),
+            "caption": f"Absolute pressure (1 bar = 100 kPa); {drop}."}, None
+
+
+def _mole_fraction_profile(result):
+    """Plot of the mole fractions, minor species on their own log panel."""
+    from simulator.report import plots
+
     x = result.mole_fractions
-    series = {name: x[:, i] for i, name in enumerate(result.species)}
-    out.append({"title": "Mole fractions",
-                "uri": plots.profile_lines_plot(z, series, "Mole fraction [-]"),
-                "caption": "Gas-phase mole fractions of every species."})
-    return {"plots": out}
+    fractions = {name: x[:, i] for i, name in enumerate(result.species)}
+    major, minor, absent = plots.split_minor_species(fractions, MINOR_SPECIES)
+    parts = ["Gas-phase mole fractions"]
+    if major and minor:
+        parts[0] += (f"; upper panel (linear axis): {', '.join(major)}; lower panel (logarithmic axis): the minor "
+                     f"species {', '.join(minor)}, whose mole fraction stays below {fmt(100 * MINOR_SPECIES, 2)} % of the "
+                     f"largest mole fraction")
+    parts[0] += "."
+    if absent:
+        parts.append(f"Not drawn: {', '.join(absent)} (zero along the whole tube).")
+    return {"title": "Mole fractions",
+            "uri": plots.mole_fraction_plot(result.z, fractions, minor_share=MINOR_SPECIES),
+            "caption": " ".join(parts)}
+
+
+def _profiles(case, result):
+    from simulator.report import plots
+
+    key = case.design.key_species
+    plots_out, notes = [], []
+    temperature, note = _temperature_profile(case, result, _exothermic(result))
+    plots_out += [temperature] if temperature else []
+    notes += [note] if note else []
+    X = result.conversion
+    plots_out.append({"title": f"Conversion of {key}",
+                      "uri": plots.profile_lines_plot(result.z, {f"Conversion of {key}": X}, "Conversion [-]"),
+                      "caption": f"Conversion of the key species {key}; outlet {fixed(X[-1], 4)}"
+                                 + (f", target {fmt(result.design['target_conversion'], 4)}."
+                                    if result.design.get("target_conversion") is not None else ".")})
+    pressure, note = _pressure_profile(case, result)
+    plots_out += [pressure] if pressure else []
+    notes += [note] if note else []
+    plots_out.append(_mole_fraction_profile(result))
+    return {"plots": plots_out, "notes": notes}
 
 
 # ----------------------------------------------------------------------------- assumptions
@@ -119,7 +189,7 @@ def _assumptions_block(case, assumptions):
         unit_e = "" if e.get("unit") in ("-", None) else f" {e['unit']}"
         ch = e.get("design_change_percent")
         rows.append([f"{_ASSUMPTION_LABELS.get(name, name)}: {e.get('measure', '')}",
-                     fmt(e.get("value"), 3) + (unit_e if _finite(e.get("value")) else ""),
+                     fmt(e.get("value"), 3, "not computed") + (unit_e if _finite(e.get("value")) else ""),
                      fmt(e.get("threshold"), 3) + unit_e,
                      {"level": flag["level"], "text": e.get("verdict", "")},
                      _change(ch) if _finite(ch) else _basis_text(e, assumptions),
@@ -294,7 +364,14 @@ def _numerics_block(case, result, screening):
                           f"{fmt(v, 6)} {'m' if k.endswith('_m') else 'K' if k.endswith('_K') else 'Pa'}"
                           for k, v in event.items())
         paragraphs.append(f"Event {name.replace('_', ' ')}: {where}.")
-    paragraphs.append(f"Hot spot located by: {result.hot_spot.get('located_by', 'n/a')}.")
+    located = result.hot_spot.get("located_by", "not recorded")
+    if case.heat.mode == "isothermal" and float(np.ptp(result.T)) < FLAT_TEMPERATURE:
+        paragraphs.append("No hot spot: the gas is held at the feed temperature (isothermal tube).")
+    elif _exothermic(result):
+        paragraphs.append(f"Hot spot located by: {located}.")
+    else:
+        paragraphs.append(f"Highest temperature (no reaction hot spot: the reaction path is not exothermic) "
+                          f"located by: {located}.")
     if result.extra.get("viscosity"):
         paragraphs.append(f"Gas viscosity: {result.extra['viscosity']}.")
     closure_rows = []

@@ -46,13 +46,21 @@ printed as they are (round them first). "text" below means ``str``.
     is a list of ``{name, as_written, si_value, si_unit}``.
 ``profiles`` : mapping
     ``plots``: list of *plot* (temperature with the medium, hot spot and limit;
-    conversion; pressure; mole fractions).
+    conversion; pressure; mole fractions, minor species on a log panel).
+    ``notes``: list of text, one per plot left out because it would be a flat
+    line (an isothermal tube, a tube without pressure drop), saying why.
 ``assumptions``, ``screening``, ``numerics`` : *block* each
     ``numerics`` has one more key, ``warnings``: list of text (may be empty).
-``validation`` : list of ``{check, source}``
-    Published checks the tool passes, each with its source citation.
+``validation`` : list of ``{key, source, compared, count}``
+    One row per published source the test suite checks the tool against:
+    the source key, its published citation, what was compared (plain words)
+    and the number of checks. Printed as an appendix after the provenance.
 ``cautions`` : list of text
     Start from :data:`STANDARD_CAUTIONS`, add case-specific ones.
+``key_cautions`` : list of text
+    The cautions printed right after the summary verdicts (the first
+    standard caution and the case-specific ones); the full list stays in the
+    Cautions section.
 ``references`` : list of ``{key, text}``
     Every equation, correlation, criterion and data set used in this run.
 ``provenance`` : list of ``{label, value}``
@@ -92,11 +100,13 @@ SECTIONS = (
     ("assumptions", "Assumption check"),
     ("screening", "Runaway screening"),
     ("numerics", "Numerics and conservation"),
-    ("validation", "Validation"),
     ("cautions", "Cautions"),
     ("references", "References"),
     ("provenance", "Provenance"),
+    ("validation", "Appendix: validation against published sources"),
 )
+#: Sections printed as an appendix (after the provenance, lettered instead of numbered).
+APPENDICES = ("validation",)
 
 #: Verdict level (simulator.verdicts) -> printed word, symbol and CSS class (border pattern). Never colour alone.
 LEVELS = {
@@ -190,6 +200,7 @@ def _environment(folder):
     env.filters["data_uri"] = _data_uri
     env.globals["SECTIONS"] = dict(SECTIONS)
     env.globals["SECTION_ORDER"] = [key for key, _ in SECTIONS]
+    env.globals["APPENDICES"] = APPENDICES
     env.globals["LEVELS"] = LEVELS
     return env
 

@@ -165,10 +165,60 @@ def _temperature_unit(temperature_unit):
     return _TEMPERATURE_UNITS[temperature_unit]
 
 
+def limit_is_far(limit, values):
+    """True when a limit line would stretch the axis: farther from the data than their own span.
+
+    The axis is scaled to the data; a limit farther away than the larger of
+    the data span and 10 (in the data's unit) is marked by an arrow and a
+    legend entry instead of a line (common practice, no source).
+
+    Parameters
+    ----------
+    limit : float
+        Limit value, in the unit of ``values``
+    values : array_like
+        Plotted data, [-]
+
+    Returns
+    -------
+    bool
+        Whether the limit lies off the data-scaled axis, [-]
+    """
+    values = np.asarray(values, dtype=float)
+    values = values[np.isfinite(values)]
+    if values.size == 0:
+        return False
+    low, high = float(values.min()), float(values.max())
+    reach = max(high - low, 10.0)
+    return limit > high + reach or limit < low - reach
+
+
+def _temperature_limit(ax, limit, shown, symbol):
+    """Draw the temperature limit: a line near the data, else an arrow and a legend entry.
+
+    ``limit`` and the arrays in ``shown`` are in the displayed unit ``symbol``.
+    """
+    data = np.concatenate([np.asarray(v, dtype=float).reshape(-1) for v in shown])
+    style = {"color": "#a1331b", "linestyle": (0, (6, 2)), "linewidth": 1.2}
+    if not limit_is_far(limit, data):
+        ax.axhline(limit, label="Temperature limit", **style)
+        return
+    above = limit > float(np.nanmax(data))
+    ax.plot([], [], label=f"Limit {limit:.1f} {symbol}, off the scale {'above' if above else 'below'} (arrow)",
+            **style)
+    y_tip, y_tail = (1.0, 0.84) if above else (0.0, 0.16)
+    ax.annotate("", xy=(0.985, y_tip), xytext=(0.985, y_tail), xycoords="axes fraction",
+                arrowprops={"arrowstyle": "-|>", "color": "#a1331b", "linewidth": 1.4})
+
+
 def profile_temperature_plot(z, T, medium_T=None, hot_spot=None, temperature_limit=None,
                              target_position=None, *, temperature_unit="K", title=None,
-                             medium_label="Medium temperature"):
+                             medium_label="Medium temperature", hot_spot_label="Hot spot"):
     """Axial temperature profile with hot spot, limit and target position marked.
+
+    The temperature axis is scaled to the plotted temperatures; a limit far
+    from them (:func:`limit_is_far`) is marked by an arrow at the edge of the
+    axes and named with its value in the legend instead of stretching the axis.
 
     Parameters
     ----------
@@ -181,7 +231,8 @@ def profile_temperature_plot(z, T, medium_T=None, hot_spot=None, temperature_lim
     hot_spot : tuple of float, optional
         Position and temperature of the hot spot, ``(z_hot [m], T_hot [K])``
     temperature_limit : float, optional
-        Highest allowed process temperature, drawn as a horizontal line, [K]
+        Highest allowed process temperature: a horizontal line near the data,
+        an arrow off the scale otherwise, [K]
     target_position : float, optional
         Position where the target conversion is reached, drawn as a vertical line, [m]
     temperature_unit : {"K", "degC"}
@@ -191,6 +242,9 @@ def profile_temperature_plot(z, T, medium_T=None, hot_spot=None, temperature_lim
     medium_label : str
         Legend text of the medium curve, e.g. "Heating-medium temperature"
         for a heated tube, drawn literally, [-]
+    hot_spot_label : str
+        Legend word of the marked maximum, e.g. "Highest temperature" where
+        no reaction heat makes a hot spot, drawn literally, [-]
 
     Returns
     -------
@@ -206,6 +260,7 @@ def profile_temperature_plot(z, T, medium_T=None, hot_spot=None, temperature_lim
     z = _as_1d("z", z)
     T = _as_1d("T", T, z.size)
     fig, ax = _new_figure(_HEIGHT + 0.4)
+    shown = [T + offset]
     with _rc():
         ax.plot(z, T + offset, label="Process (bed) temperature",
                 markevery=_markevery(z.size), **_style(0))
@@ -214,11 +269,11 @@ def profile_temperature_plot(z, T, medium_T=None, hot_spot=None, temperature_lim
             if medium.ndim == 0:
                 medium = np.full(z.size, float(medium))
             medium = _as_1d("medium_T", medium, z.size)
+            shown.append(medium + offset)
             ax.plot(z, medium + offset, label=_literal(medium_label, 40),
                     markevery=_markevery(z.size), **_style(1))
         if temperature_limit is not None:
-            ax.axhline(float(temperature_limit) + offset, color="#a1331b", linestyle=(0, (6, 2)),
-                       linewidth=1.2, label="Temperature limit")
+            _temperature_limit(ax, float(temperature_limit) + offset, shown, symbol)
         if target_position is not None:
             ax.axvline(float(target_position), color="#1f4e8c", linestyle=":", linewidth=1.4,
                        label="Target conversion reached")
@@ -226,18 +281,18 @@ def profile_temperature_plot(z, T, medium_T=None, hot_spot=None, temperature_lim
             z_hot, T_hot = (float(v) for v in hot_spot)
             ax.plot([z_hot], [T_hot + offset], linestyle="none", marker="*", markersize=13,
                     markerfacecolor="white", markeredgecolor="black", markeredgewidth=1.2,
-                    label=f"Hot spot: {T_hot + offset:.1f} {symbol} at z = {z_hot:.3g} m")
+                    label=f"{_literal(hot_spot_label, 30)}: {T_hot + offset:.1f} {symbol} at z = {z_hot:.3g} m")
         ax.set_xlabel("Axial position z [m]")
         ax.set_ylabel(f"Temperature [{symbol}]")
         ax.set_xlim(z[0], z[-1])
         ax.margins(y=0.12)
         if title:
             ax.set_title(_literal(title))
-        fig.legend(loc="outside lower center", ncols=3)
+        fig.legend(loc="outside lower center", ncols=2)
     return _to_uri(fig, _salt("temperature", z, T, medium_T if medium_T is None
                                  else np.asarray(medium_T, dtype=float).reshape(-1),
                                  hot_spot, temperature_limit, target_position,
-                                 temperature_unit, title, medium_label))
+                                 temperature_unit, title, medium_label, hot_spot_label))
 
 
 def profile_lines_plot(z, series, ylabel, title=None, *, xlabel="Axial position z [m]",
@@ -287,10 +342,109 @@ def profile_lines_plot(z, series, ylabel, title=None, *, xlabel="Axial position 
         ax.set_xlim(z[0], z[-1])
         if log_y:
             ax.set_yscale("log")
+        else:
+            ax.ticklabel_format(axis="y", useOffset=False)   # no "+9.99e1" offset: ticks read as values
         if title:
             ax.set_title(_literal(title))
         ax.legend(loc="best", ncols=2 if len(series) > 4 else 1)
     return _to_uri(fig, _salt("lines", z, *arrays, tuple(series), ylabel, title, xlabel, log_y))
+
+
+def split_minor_species(fractions, minor_share=0.1):
+    """Split species into major and minor ones by their largest mole fraction along the tube.
+
+    A species is minor when its largest mole fraction stays below ``minor_share``
+    times the largest mole fraction of any species: on a linear axis scaled to
+    the main species it would hug zero (common practice, no source).
+
+    Parameters
+    ----------
+    fractions : dict of str to array_like
+        Species name -> mole fraction at each axial position, [-]
+    minor_share : float
+        Share of the largest mole fraction below which a species is minor, [-]
+
+    Returns
+    -------
+    tuple of (list of str, list of str, list of str)
+        Major species, minor species (present somewhere) and species absent
+        (zero everywhere), each in the order given, [-]
+    """
+    peaks = {name: float(np.nanmax(np.asarray(values, dtype=float))) for name, values in fractions.items()}
+    top = max([v for v in peaks.values() if v > 0.0], default=0.0)
+    major, minor, absent = [], [], []
+    for name, peak in peaks.items():
+        if not peak > 0.0:
+            absent.append(name)
+        elif peak < minor_share * top:
+            minor.append(name)
+        else:
+            major.append(name)
+    return major, minor, absent
+
+
+def mole_fraction_plot(z, fractions, *, minor_share=0.1, title=None):
+    """Mole fractions along the tube: major species on a linear axis, minor ones on a log axis below.
+
+    A minor species (:func:`split_minor_species`) would hug zero on a linear
+    axis; it goes to a second panel with a logarithmic axis that spans
+    at most eight decades below the largest minor fraction. Species absent
+    everywhere are left out (the caller says so in the caption).
+
+    Parameters
+    ----------
+    z : array_like
+        Axial positions, [m]
+    fractions : dict of str to array_like
+        Species name (drawn literally) -> mole fraction at ``z``, [-]
+    minor_share : float
+        Threshold of :func:`split_minor_species`, [-]
+    title : str, optional
+        Figure title, drawn literally, [-]
+
+    Returns
+    -------
+    str
+        ``data:image/svg+xml;base64,...`` URI of the SVG figure, [-]
+
+    Raises
+    ------
+    ValueError
+        If no species is present or an array length differs from ``z``.
+    """
+    from matplotlib.figure import Figure
+
+    z = _as_1d("z", z)
+    arrays = {name: _as_1d(f"fractions[{name!r}]", v, z.size) for name, v in fractions.items()}
+    major, minor, _ = split_minor_species(arrays, minor_share)
+    if not major and not minor:
+        raise ValueError("plot data fractions: no species present; expected at least one positive fraction.")
+    panels = [(names, log) for names, log in ((major, False), (minor, True)) if names]
+    with _rc():
+        fig = Figure(figsize=(_WIDTH, _HEIGHT if len(panels) == 1 else _HEIGHT * 1.75), layout="constrained")
+        axes = fig.subplots(len(panels), 1, sharex=True, squeeze=False)[:, 0]
+        style = 0
+        for ax, (names, log) in zip(axes, panels):
+            for name in names:
+                y = arrays[name]
+                if log:
+                    y = np.where(y > 0.0, y, np.nan)
+                ax.plot(z, y, label=_literal(name, 40), markevery=_markevery(z.size), **_style(style))
+                style += 1
+            if log:
+                ax.set_yscale("log")
+                top = max(float(np.nanmax(arrays[n])) for n in names)
+                low = min(float(np.nanmin(np.where(arrays[n] > 0.0, arrays[n], np.inf))) for n in names)
+                ax.set_ylim(max(low, top * 1e-8) / 1.5, top * 1.5)
+                ax.set_ylabel("Mole fraction [-] (log)")
+            else:
+                ax.set_ylabel("Mole fraction [-]")
+            ax.set_xlim(z[0], z[-1])
+            ax.legend(loc="best", ncols=2 if len(names) > 4 else 1)
+        axes[-1].set_xlabel("Axial position z [m]")
+        if title:
+            axes[0].set_title(_literal(title))
+    return _to_uri(fig, _salt("fractions", z, *arrays.values(), tuple(arrays), minor_share, title))
 
 
 def _unit_of(label):

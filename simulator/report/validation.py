@@ -4,8 +4,11 @@ A test that compares tubesim against the outside world carries
 ``@pytest.mark.published("KEY", "where in the source")`` with ``KEY`` in
 ``tests/sources.toml``. :func:`collect_published_checks` reads those markers
 with :mod:`ast` (no test is imported or run) and turns each into one row
-``{check, source}``: the test's name in words, and the citation of ``KEY``
-followed by the place in the source.
+``{key, citation, compared, where, test}``. The report prints only ``citation``
+(the published citation, ``report_citation`` in ``sources.toml``) and
+``compared`` (what was compared, in plain words), one row per source; the
+marker's ``where`` and the test's name are internal notes of the test suite
+(they may say "from memory" or name a file) and never reach the report.
 
 An installed wheel does not ship ``tests/``. The rows are therefore kept as a
 snapshot in the package, :mod:`simulator.report.validated_checks` (a plain
@@ -26,10 +29,28 @@ from pathlib import Path
 
 _MARKER = "published"
 _SNAPSHOT_MODULE = "validated_checks.py"
-#: Words of source keys that are not names (kept lower case in check names).
-_NOT_NAMES = {"and", "the", "of", "balance", "energy", "gas", "nasa", "gri", "fluids", "white", "chase"}
-#: Words printed in a fixed form in check names.
-_FIXED_WORDS = {"janaf": "JANAF", "pfr": "PFR", "cstr": "CSTR", "nist": "NIST", "cli": "CLI"}
+#: Phrases of internal notes that the report never prints (test notes, file paths, test names).
+INTERNAL_NOTE_PATTERNS = (r"\bfrom memory\b", r"\bcheck-values\b", r"\.md\b", r"\bnotes?\b", r"\btest_\w+",
+                          r"\btests?/", r"\bregression\b", r"\bhand formula\b", r"\bproject\b")
+
+
+def internal_notes(text):
+    """Phrases in ``text`` that are internal notes, not something a report may print.
+
+    Parameters
+    ----------
+    text : str
+        Text meant for the report, [-]
+
+    Returns
+    -------
+    list of str
+        The offending phrases found (empty when the text is fit to print), [-]
+    """
+    found = []
+    for pattern in INTERNAL_NOTE_PATTERNS:
+        found += [m.group(0) for m in re.finditer(pattern, str(text), flags=re.I)]
+    return found
 
 
 def source_tree_tests():
@@ -85,31 +106,19 @@ def _markers_in(nodes):
     return found
 
 
-def _words(name, keys):
-    """Test name -> words: ``test_ergun_pressure_gradient`` -> ``Ergun pressure gradient``.
+def _report_fields(sources, key):
+    """(citation, compared) of ``key`` as the report prints them.
 
-    Words that are the name part of a source key (``morbidelli_varma1988`` ->
-    Morbidelli, Varma) are capitalized; ``0_0175`` becomes ``0.0175``.
+    ``report_citation`` and ``compared`` of the ``sources.toml`` entry; without
+    them, ``citation`` and ``used`` (``tests/test_report_end_to_end.py`` fails when
+    either carries an internal note, see :func:`internal_notes`).
     """
-    text = re.sub(r"^test_?", "", name)
-    text = re.sub(r"(?<=\d)_(?=\d)", ".", text).replace("_", " ").strip()
-    names = set()
-    for key in keys:
-        for part in re.split(r"[_\d]+", key or ""):
-            if len(part) > 2 and part not in _NOT_NAMES:
-                names.add(part.lower())
-    words = [_FIXED_WORDS.get(w.lower(), w.capitalize() if w.lower() in names else w)
-             for w in text.split()]
-    if words:
-        words[0] = words[0][:1].upper() + words[0][1:]
-    return " ".join(words) or name
-
-
-def _citation(sources, key):
     entry = sources.get(key)
     if not isinstance(entry, dict) or not entry.get("citation"):
-        return f"(no entry for {key!r} in tests/sources.toml)"
-    return str(entry["citation"])
+        return f"(no entry for {key!r} in tests/sources.toml)", ""
+    citation = entry.get("report_citation") or entry["citation"]
+    compared = entry.get("compared") or entry.get("used", "")
+    return str(citation), str(compared)
 
 
 def collect_published_checks(tests_dir):
@@ -124,11 +133,12 @@ def collect_published_checks(tests_dir):
     Returns
     -------
     list of dict
-        One ``{check, source, key, citation, where, test}`` per marker, in
-        file and line order. ``check`` is the test (or class, or module for
-        ``pytestmark``) in words; ``citation`` is the entry of ``key`` in
-        ``sources.toml``; ``source`` is the citation followed by ``where``,
-        the place in the source, [-]
+        One ``{key, citation, compared, where, test}`` per marker, in file
+        and line order. ``citation`` and ``compared`` are the report's text
+        for ``key`` (``report_citation`` and ``compared`` in ``sources.toml``,
+        else ``citation`` and ``used``); ``where`` is the marker's place in
+        the source and ``test`` the test (or class, or module for
+        ``pytestmark``), both kept for the snapshot check only, [-]
 
     Raises
     ------
@@ -161,12 +171,11 @@ def collect_published_checks(tests_dir):
             key, where = _marker_args(call)
             if key is None:
                 key = ast.unparse(call.args[0]) if call.args else "?"
-            citation = _citation(sources, key)
+            citation, compared = _report_fields(sources, key)
             rows.append({
-                "check": _words(owner, list(sources)) if owner.startswith(("test", "Test")) else owner,
-                "source": f"{citation} \u2014 {where}" if where else citation,
                 "key": key,
                 "citation": citation,
+                "compared": compared,
                 "where": where,
                 "test": f"{relative}::{owner}" if owner.isidentifier() else relative,
             })
@@ -243,7 +252,7 @@ def published_checks():
     Returns
     -------
     list of dict
-        ``{check, source, key, citation, where, test}`` per marker, read
+        ``{key, citation, compared, where, test}`` per marker, read
         from the snapshot shipped with the package (identical to the markers in
         a checkout whose tests pass), [-]
     """
