@@ -78,3 +78,21 @@ def worst(levels):
     """
     rank = {level: k for k, level in enumerate(LEVELS)}
     return max(levels, key=rank.__getitem__, default=ACCEPTABLE)
+
+
+def null_where_not_finite(tree):
+    """A copy of a JSON-ready tree with every non-finite float (inf, NaN) replaced by None.
+
+    The tool says ``null`` where it cannot compute a number, never inf or NaN (which JSON cannot
+    carry and a reader would take for a result).
+
+    >>> null_where_not_finite({"a": float("inf"), "b": [1.0, float("nan")], "c": "x"})
+    {'a': None, 'b': [1.0, None], 'c': 'x'}
+    """
+    if isinstance(tree, float):
+        return tree if math.isfinite(tree) else None
+    if isinstance(tree, dict):
+        return {k: null_where_not_finite(v) for k, v in tree.items()}
+    if isinstance(tree, (list, tuple)):
+        return [null_where_not_finite(v) for v in tree]
+    return tree
