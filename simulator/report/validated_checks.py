@@ -460,6 +460,31 @@ CHECKS = ({'check': 'Ideal branch equals Levenspiel volume with expansion',
               '1982 (from memory)',
   'where': 'ordering of the criteria: regression of the structural facts stated with runaway.md table 1.7',
   'test': 'tests/test_runaway_criteria.py::test_ordering_of_criteria_and_approach_to_semenov'},
+ {'check': 'Barkelew envelope tends to the Semenov value',
+  'source': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+            "1959 (from memory; the comparison with Barkelew's criterion is seen in the abstract of Van "
+            'Welsenaere & Froment 1970) — envelope of critical N/S against S (closed form from memory); '
+            'large-S limit e (Semenov, derived)',
+  'key': 'barkelew1959',
+  'citation': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+              "1959 (from memory; the comparison with Barkelew's criterion is seen in the abstract of Van "
+              'Welsenaere & Froment 1970)',
+  'where': 'envelope of critical N/S against S (closed form from memory); large-S limit e (Semenov, derived)',
+  'test': 'tests/test_runaway_criteria.py::test_barkelew_envelope_tends_to_the_semenov_value'},
+ {'check': 'Barkelew envelope against the reproduced boundary',
+  'source': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+            "1959 (from memory; the comparison with Barkelew's criterion is seen in the abstract of Van "
+            'Welsenaere & Froment 1970) — envelope from memory, compared with the Morbidelli-Varma boundary '
+            "for gamma = inf of the project notes' reproduction (runaway.md table 1.7), which the published "
+            "comparisons put on Barkelew's envelope (from memory)",
+  'key': 'barkelew1959',
+  'citation': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+              "1959 (from memory; the comparison with Barkelew's criterion is seen in the abstract of Van "
+              'Welsenaere & Froment 1970)',
+  'where': 'envelope from memory, compared with the Morbidelli-Varma boundary for gamma = inf of the project '
+           "notes' reproduction (runaway.md table 1.7), which the published comparisons put on Barkelew's "
+           'envelope (from memory)',
+  'test': 'tests/test_runaway_criteria.py::test_barkelew_envelope_against_the_reproduced_boundary'},
  {'check': 'Morbidelli Varma critical feed fraction',
   'source': "M. Morbidelli, A. Varma, 'A generalized criterion for parametric sensitivity: application to "
             "thermal explosion theory', Chem. Eng. Sci. 43, 91, 1988 (from memory); also AIChE J. 28, 705, "
@@ -519,6 +544,18 @@ CHECKS = ({'check': 'Ideal branch equals Levenspiel volume with expansion',
               'there (LSODA, rtol 1e-10)',
   'where': "runaway appears just above p0 = 0.018 atm in the source's profile figure (from memory): +-3 %",
   'test': 'tests/test_screening.py::test_critical_feed_fraction_near_the_remembered_published_value'},
+ {'check': 'Barkelew on the published tube',
+  'source': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+            "1959 (from memory; the comparison with Barkelew's criterion is seen in the abstract of Van "
+            'Welsenaere & Froment 1970) — envelope (from memory) on the Froment (1967) tube: safe at p0 = '
+            '0.015 atm, critical p0 below the Morbidelli-Varma one (the envelope is for gamma = inf)',
+  'key': 'barkelew1959',
+  'citation': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+              "1959 (from memory; the comparison with Barkelew's criterion is seen in the abstract of Van "
+              'Welsenaere & Froment 1970)',
+  'where': 'envelope (from memory) on the Froment (1967) tube: safe at p0 = 0.015 atm, critical p0 below the '
+           'Morbidelli-Varma one (the envelope is for gamma = inf)',
+  'test': 'tests/test_screening.py::test_barkelew_on_the_published_tube'},
  {'check': 'Sweep boundary matches the Morbidelli Varma critical value',
   'source': "M. Morbidelli, A. Varma, 'A generalized criterion for parametric sensitivity: application to "
             "thermal explosion theory', Chem. Eng. Sci. 43, 91, 1988 (from memory); also AIChE J. 28, 705, "
