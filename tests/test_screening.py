@@ -13,7 +13,6 @@ import pytest
 
 from simulator import load_case
 from simulator.cli import main
-from simulator.errors import CaseError
 from simulator.screening.screen import screen
 
 CASE = "froment1967_oxylene_packed_tube.toml"
@@ -105,9 +104,15 @@ def test_cli_writes_screening_files(cases_dir, tmp_path, capsys):
     assert "risk: " in capsys.readouterr().out
 
 
-def test_uncooled_case_is_refused(cases_dir):
-    with pytest.raises(CaseError, match=r"heat\.mode = 'isothermal'"):
-        screen(load_case(cases_dir / "decomposition_empty_tube.toml"))
+def test_uncooled_case_is_not_screened_and_says_why(cases_dir, tmp_path):
+    # a valid case (validate passes it) that the cooled-tube criteria cannot judge: exit 0, nothing
+    # screened, the reason in screening.json (it was refused with exit 2)
+    report = screen(load_case(cases_dir / "decomposition_empty_tube.toml"))
+    assert report["applicable"] is False and report["risk"] == "not screened"
+    assert 'heat.mode = "isothermal"' in report["reason"] and "cooled through its wall" in report["reason"]
+    assert "criteria" not in report and report["hot_spot"]["level"] is None
+    assert main(["screen", str(cases_dir / "decomposition_empty_tube.toml"), "--out", str(tmp_path)]) == 0
+    assert json.loads((tmp_path / "screening.json").read_text())["applicable"] is False
 
 
 @pytest.mark.published("froment1967", "runaway appears just above p0 = 0.018 atm in the source's profile figure "

@@ -145,3 +145,19 @@ def test_net_exothermic_tube_is_screened_with_levels_everywhere(write_case):
     assert report["hot_spot"]["level"] in ("acceptable", "review", "unacceptable") and report["hot_spot"]["reason"]
     assert "barkelew" in report["criteria"] and "barkelew1959" in report["references"]
     assert "_inert" not in json.dumps(report) and _finite(report)
+
+
+def test_screen_where_every_evaluation_fails_writes_null_not_nan(cases_dir, tmp_path):
+    # found by fuzzing: the hydrogenation demo at a feed pressure of 1 Pa made screening.json carry NaN
+    # ("Out of range float values are not JSON compliant: nan", traceback)
+    text = (cases_dir / "hydrogenation_cooled_packed_bed.toml").read_text().replace('pressure = "5 bar"',
+                                                                                   'pressure = "1 Pa"')
+    path = tmp_path / "low_pressure.toml"
+    path.write_text(text)
+    out = tmp_path / "out"
+    assert main(["screen", str(path), "--out", str(out)]) == 0
+    written = json.loads((out / "screening.json").read_text())
+    assert _finite(written)
+    if written["applicable"]:
+        # nothing could be evaluated: the tool says so (review), it does not claim a margin
+        assert written["risk_level"] != "acceptable"

@@ -50,7 +50,7 @@ import math
 
 import numpy as np
 
-from simulator.errors import CaseError, SimulatorError
+from simulator.errors import SimulatorError
 from simulator.model import kernel as K
 from simulator.model.build import build_model
 from simulator.screening import criteria as C
@@ -347,17 +347,19 @@ def screen(case, n_coarse=21):
         With ``applicable``: False (and the ``reason``, nothing screened) where runaway screening
         does not apply to the tube (see :func:`applicability`).
 
-    Raises
-    ------
-    CaseError
-        If the tube exchanges no heat with a medium (``heat.mode`` not ``"exchange"``).
+    A tube that exchanges no heat with a medium (``heat.mode`` not ``"exchange"``) is not screened
+    either: ``applicable`` False with the reason (the cooled-tube criteria need a medium).
     """
-    if not case.heat.exchange:
-        raise CaseError(f"{case.source_path}: heat.mode = {case.heat.mode!r}: runaway screening needs a tube "
-                        'cooled through its wall (heat.mode = "exchange" with a [heat.medium]).')
     base_result = simulate(case)
     if base_result.status == "failed":
         raise SimulatorError(f"the base case failed: {base_result.termination}")
+    if not case.heat.exchange:
+        # a valid case that the cooled-tube criteria cannot judge: say so and screen nothing
+        return _not_applicable(case, base_result, {
+            "applicable": False, "dominant": None, "net_heat_release_W": None, "heat_release_by_reaction_W": {},
+            "wall_duty_W": float(base_result.Q[-1]), "largest_rise_above_medium_K": None,
+            "reason": f'heat.mode = "{case.heat.mode}": runaway screening needs a tube cooled through its wall '
+                      '(heat.mode = "exchange" with a [heat.medium]); nothing was screened'})
     applies = applicability(case, base_result, build_model(case))
     if not applies["applicable"]:
         return _not_applicable(case, base_result, applies)
@@ -478,11 +480,25 @@ def _finished(report):
 
 
 def _not_applicable(case, result, applies):
-    """The screening.json of a tube that runaway screening does not apply to: the reason, nothing screened."""
+    """The screening.json of a tube that is not screened: the reason, nothing screened.
+
+    Where screening does not apply (nothing can run away) the risk is "not applicable"
+    (acceptable). A tube without a cooling medium is "not screened": its risk level is review
+    when the reaction path is exothermic (the temperature control must be judged otherwise), else
+    acceptable; its hot spot is not judged here (level null).
+    """
     hot = dict(result.hot_spot)
     hot["rise_above_medium_K"] = applies["largest_rise_above_medium_K"]
-    hot.update({"level": ACCEPTABLE, "reason": "no runaway hot spot: " + applies["reason"],
-                "margin_to_maxima_curve_K": None})
+    hot["margin_to_maxima_curve_K"] = None
+    if case.heat.exchange:
+        risk, level = "not applicable", risk_level("not applicable")
+        hot.update({"level": ACCEPTABLE, "reason": "no runaway hot spot: " + applies["reason"]})
+    else:
+        rise = result.adiabatic_temperature_rise
+        exothermic = math.isfinite(rise) and rise > 0.0
+        risk, level = "not screened", REVIEW if exothermic else ACCEPTABLE
+        hot.update({"level": None, "reason": "not judged by the screening: " + applies["reason"]})
+        applies = dict(applies, net_heat_release_W=net_heat_release(result, build_model(case)))
     return _finished({
         "title": case.title,
         "key_species": case.design.key_species,
@@ -491,9 +507,9 @@ def _not_applicable(case, result, applies):
         "applicability": {k: v for k, v in applies.items() if k not in ("applicable", "reason", "dominant")},
         "adiabatic_temperature_rise_K": result.adiabatic_temperature_rise,
         "hot_spot": hot,
-        "medium_temperature_K": case.heat.medium_temperature,
-        "risk": "not applicable",
-        "risk_level": risk_level("not applicable"),
+        "medium_temperature_K": case.heat.medium_temperature if case.heat.exchange else None,
+        "risk": risk,
+        "risk_level": level,
         "risk_rule": applies["reason"],
         "cautions": list(CAUTIONS),
         "solves": 1,
@@ -789,9 +805,11 @@ def format_screening(report):
 
     if not report["applicable"]:
         a = report["applicability"]
+        reason = report["reason"] if NOT_APPLICABLE in report["reason"] else \
+            f"runaway screening does not apply here: {report['reason']}"
         return "\n".join([
             report["title"],
-            f"  runaway screening does not apply: {report['reason']}.",
+            f"  {reason}.",
             f"  net heat release of the reactions {a['net_heat_release_W'] / 1e3:+.4g} kW, heat through the walls "
             f"{a['wall_duty_W'] / 1e3:+.4g} kW (into the gas when positive); highest temperature "
             f"{h['temperature_K']:.2f} K at z = {h['position_m']:.4g} m.",
