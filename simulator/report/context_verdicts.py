@@ -191,7 +191,7 @@ def _design_quantity(assumptions):
 
 def _basis_text(entry, assumptions):
     """Why an assumption has no design change, in words fit for a case without a target."""
-    basis = str(entry.get("design_change_basis", "n/a"))
+    basis = str(entry.get("design_change_basis") or "not computed")
     if assumptions.get("target_conversion") is None and "outlet conversions" in basis:
         return "no target conversion is given; " + basis[basis.index("outlet conversions"):]
     return basis
@@ -234,7 +234,8 @@ def _summary(case, result, assumptions, screening, screening_reason):
         numbers.append({"label": "Target conversion", "value": fmt(target, 4), "unit": "-"})
         if d["reached"]:
             numbers.append({"label": "Length to the target", "value": fmt(d["length_m"], 4), "unit": "m"})
-            numbers.append({"label": f"Reactor volume to the target ({case.tube.count} tubes)",
+            tubes = "1 tube" if case.tube.count == 1 else f"{case.tube.count} tubes"
+            numbers.append({"label": f"Reactor volume to the target ({tubes})",
                             "value": fmt(d["volume_m3"], 4), "unit": "m³"})
             numbers.append({"label": "Catalyst mass to the target",
                             "value": fmt(d["catalyst_mass_kg"], 4) if d["catalyst_mass_kg"] is not None
@@ -262,10 +263,11 @@ def _summary(case, result, assumptions, screening, screening_reason):
     dp = outlet["pressure_drop_Pa"]
     label = "Pressure drop" if case.pressure_drop.model != "none" else \
         "Pressure drop (not modelled: pressure_drop.model = \"none\")"
-    numbers.append({"label": label, "value": fmt(dp / 1e3, 4) if dp is not None else "n/a", "unit": "kPa"})
+    numbers.append({"label": label, "value": fmt(dp / 1e3, 4) if dp is not None else "not computed",
+                    "unit": "kPa" if dp is not None else ""})
     numbers.append({"label": "Pressure drop / feed pressure",
-                    "value": fixed(100.0 * dp / case.feed.pressure, 2) if dp is not None else "n/a",
-                    "unit": "%"})
+                    "value": fixed(100.0 * dp / case.feed.pressure, 2) if dp is not None else "not computed",
+                    "unit": "%" if dp is not None else ""})
     rise = s["adiabatic_temperature_rise_K"]
     if rise is not None:
         numbers.append({"label": f"Adiabatic temperature rise (complete conversion of {key})",
@@ -279,7 +281,7 @@ def _summary(case, result, assumptions, screening, screening_reason):
     if case.heat.exchange or case.heat.mode == "isothermal":
         Q = outlet["heat_duty_W"]
         numbers.append({"label": "Heat through the walls (negative: removed)", "value": fmt(Q / 1e3, 4)
-                        if Q is not None else "n/a", "unit": "kW"})
+                        if Q is not None else "not computed", "unit": "kW" if Q is not None else ""})
 
     flags = []
     if result.status != "completed":
