@@ -806,7 +806,7 @@ def format_screening(report):
     if not report["applicable"]:
         a = report["applicability"]
         reason = report["reason"] if NOT_APPLICABLE in report["reason"] else \
-            f"runaway screening does not apply here: {report['reason']}"
+            f"not screened: {report['reason']}"
         return "\n".join([
             report["title"],
             f"  {reason}.",
