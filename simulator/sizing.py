@@ -16,6 +16,7 @@ import dataclasses
 import math
 
 from simulator.solve.integrate import simulate
+from simulator.verdicts import null_where_not_finite
 
 MAX_LENGTH_FACTOR = 64.0      # search up to 64x the given length in (a)
 MAX_COUNT_FACTOR = 4096       # search up to 4096x the given count in (b)
@@ -276,7 +277,7 @@ def size(case):
         raise CaseError(f"{case.source_path}: design.target_conversion: missing; sizing needs a target.")
     a = length_for_count(case)
     b = count_for_length(case)
-    return {
+    return null_where_not_finite({
         "title": case.title,
         "target_conversion": case.design.target_conversion,
         "requirements": {
@@ -289,7 +290,7 @@ def size(case):
         "count_for_given_length": dict({k: v for k, v in b.items() if k != "candidates"},
                                        given={"tube_length_m": case.tube.length}),
         "candidates": a["candidates"] + b["candidates"],
-    }
+    })
 
 
 def _tubes(n):
@@ -300,10 +301,13 @@ def format_sizing(report):
     """Terminal table of a sizing: the two answers, each on its own lines."""
     a, b = report["length_for_given_count"], report["count_for_given_length"]
 
+    def f(value, spec, unit="", scale=1.0):
+        return "not computed" if value is None else f"{value / scale:{spec}}{unit}"
+
     def design_line(d):
         return (f"      design: {_tubes(d['tube_count'])} of {d['tube_length_m']:.4g} m, outlet conversion "
-                f"{d['outlet_conversion']:.4f}, pressure drop {d['pressure_drop_Pa'] / 1e5:.4g} bar, "
-                f"hot spot {d['hot_spot_K']:.1f} K")
+                f"{f(d['outlet_conversion'], '.4f')}, pressure drop {f(d['pressure_drop_Pa'], '.4g', ' bar', 1e5)}, "
+                f"hot spot {f(d['hot_spot_K'], '.1f', ' K')}")
 
     lines = [report["title"], f"  target conversion {report['target_conversion']:.4g}"]
     n = a["given"]["tube_count"]
