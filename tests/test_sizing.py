@@ -237,3 +237,22 @@ def test_each_answer_is_a_complete_design_a_rerun_reproduces(write_case):
         assert again.outlet_conversion >= TARGET - 1e-6
     # (a) ends at the target crossing: its conversion is the target
     assert report["length_for_given_count"]["design"]["outlet_conversion"] == pytest.approx(TARGET, abs=1e-6)
+
+
+def test_sizing_json_is_finite_and_the_table_says_not_computed(write_case, monkeypatch):
+    # a candidate whose hot spot could not be located (NaN) must give null in sizing.json, not NaN
+    # (json refuses NaN: the file was lost with a traceback), and "not computed" in the table
+    import simulator.sizing as sizing
+    from simulator.sizing import format_sizing
+
+    real = sizing._evaluate
+
+    def no_hot_spot(case, kind):
+        cand = real(case, kind)
+        return dict(cand, hot_spot_K=float("nan"))
+
+    monkeypatch.setattr(sizing, "_evaluate", no_hot_spot)
+    report = size(load_case(write_case(_case())))
+    json.dumps(report, allow_nan=False)
+    assert report["count_for_given_length"]["design"]["hot_spot_K"] is None
+    assert "hot spot not computed" in format_sizing(report)
