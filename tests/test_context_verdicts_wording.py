@@ -30,3 +30,16 @@ def test_heated_tube_is_below_its_medium_not_negatively_above(write_case):
     texts = _summary_texts(build_context(case, simulate(case), None, None))
     line = next(t for t in texts if "the medium" in t and t.startswith(("Hot spot:", "Highest temperature:")))
     assert "below the medium" in line and "-" not in line.split("medium")[1]
+
+
+def test_assumption_flags_without_a_target_give_the_conversion_change(write_case):
+    from simulator.assumptions import check_assumptions
+
+    case = load_case(write_case(_case().replace("target_conversion = 0.9", "")))
+    assumptions = check_assumptions(case)
+    context = build_context(case, simulate(case), assumptions, None)
+    flags = {f["label"]: f["text"] for f in context["summary"]["flags"]}
+    for label in ("Isothermal", "Isobaric"):
+        assert "no target conversion is given" in flags[label]
+        assert "changes the outlet conversion by" in flags[label]
+        assert "do not reach" not in flags[label] and "does not reach" not in flags[label]

@@ -193,7 +193,10 @@ def _basis_text(entry, assumptions):
     """Why an assumption has no design change, in words fit for a case without a target."""
     basis = str(entry.get("design_change_basis") or "not computed")
     if assumptions.get("target_conversion") is None and "outlet conversions" in basis:
-        return "no target conversion is given; " + basis[basis.index("outlet conversions"):]
+        change = entry.get("outlet_conversion_change")
+        effect = (f"applying it alone changes the outlet conversion by {change:+.4f} at the given length"
+                  if _finite(change) else basis[basis.index("outlet conversions"):])
+        return "no target conversion is given; " + effect
     return basis
 
 
