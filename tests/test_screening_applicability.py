@@ -161,3 +161,17 @@ def test_screen_where_every_evaluation_fails_writes_null_not_nan(cases_dir, tmp_
     if written["applicable"]:
         # nothing could be evaluated: the tool says so (review), it does not claim a margin
         assert written["risk_level"] != "acceptable"
+
+
+def test_dominant_reaction_without_the_key_species_gives_undefined_groups_not_a_crash(write_case):
+    # C => B releases most of the heat but does not consume the key species A: its B, N, psi are not
+    # defined for A. The Semenov verdict was called with psi = NaN and raised ValueError.
+    text = _bed(_reaction("A => B", "2e3 m^3/(kg*s)", "60 kJ/mol") + _reaction("C => B", "2e3 m^3/(kg*s)",
+                                                                                "60 kJ/mol"),
+                feed="{ A = 0.02, C = 0.05, N2 = 0.93 }", hf=(-40.0, 20.0))
+    report = screening_json(screen(load_case(write_case(text))))
+    assert report["applicable"] and report["groups"]["reaction"] == "C => B"
+    assert report["groups"]["psi"] is None and "not consumed" in report["groups"]["note"]
+    assert report["criteria"]["semenov"]["verdict"] == "undecided"
+    assert report["criteria"]["barkelew"]["verdict"] == "undecided"
+    assert _finite(report)

@@ -307,12 +307,14 @@ def dimensionless_groups(model, j, rates, dH):
     St = case.heat.overall_coefficient * math.pi * D * L / cp_flow
     Da = rates[j] * nu_key * model.area * L / F0[key]
     N = St / Da if Da > 0 else None
-    psi = B / N if N is not None and N > 0 else None
+    psi = B / N if N is not None and N > 0 and math.isfinite(B) else None
     notes = []
-    if N is None:
+    if not nu_key > 0:
+        notes.append(f"the key species {case.design.key_species} is not consumed by {case.reactions[j].equation}, "
+                     "so dT_ad, B, Da, N and psi of that reaction are not defined")
+    elif N is None:
         notes.append(f"Da = {Da:.3g} <= 0: the reaction does not run forward at the feed and the medium temperature "
-                     "(feed at or beyond equilibrium, or the key species not consumed by it), so N and psi are "
-                     "not defined")
+                     "(feed at or beyond equilibrium), so N and psi are not defined")
     return {"reaction": case.reactions[j].equation, "gamma": gamma, "adiabatic_rise_K": float(dT_ad), "B": float(B),
             "St": St, "Da": float(Da), "N": None if N is None else float(N), "psi": None if psi is None else float(psi),
             "N_over_B": float(N / B) if N is not None and B > 0 else None, "note": "; ".join(notes),
@@ -383,11 +385,11 @@ def screen(case, n_coarse=21):
     crit["semenov"] = C.semenov_1928_verdict(groups["psi"], groups["gamma"]) if groups["psi"] is not None \
         else {"verdict": "undecided", "critical": None, "value": None, "source": "semenov1928",
               "note": groups["note"] or "no cooling (St = 0)"}
-    crit["barkelew"] = C.barkelew_1959_verdict(groups["N"], groups["B"]) \
-        if groups["N"] is not None and groups["B"] > 0 else \
+    barkelew_applies = groups["N"] is not None and groups["B"] > 0      # False for a NaN B too
+    crit["barkelew"] = C.barkelew_1959_verdict(groups["N"], groups["B"]) if barkelew_applies else \
         {"verdict": "undecided", "critical": None, "value": None, "source": "barkelew1959",
-         "note": groups["note"] or "B <= 0 at the feed"}
-    if groups["N"] is not None and groups["B"] > 0:
+         "note": groups["note"] or "B is not positive at the feed"}
+    if barkelew_applies:
         f = C.barkelew_1959_critical_scale(groups["N"], groups["B"])
         crit["barkelew"]["critical_feed_mole_fraction"] = None if f is None else f * v.base["feed_mole_fraction"]
     vwf = C.van_welsenaere_froment_1970_maxima_curve_verdict(T_star, Tc, E)
