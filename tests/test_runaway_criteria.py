@@ -263,6 +263,20 @@ def test_morbidelli_varma_verdict_sides():
     assert morbidelli_varma_1988_verdict(2.0, edge)["verdict"] == "undecided"
 
 
+def test_morbidelli_varma_edge_maximum_below_the_threshold_is_no_boundary():
+    # |s| largest at the end of the range but tiny everywhere (a gently rising hot spot, as the
+    # methanol demo's feed fraction with |s| <= 0.05): no sharp boundary in the range, not "undecided"
+    gentle = locate_sensitivity_maximum(lambda p: 500.0 + 5.0 * p * p, 0.1, 0.6, n_coarse=9)
+    assert gentle.found and not gentle.decided and gentle.failed == 0 and abs(gentle.s_max) < 0.1
+    verdict = morbidelli_varma_1988_verdict(0.3, gentle, s_threshold=3.0)
+    assert verdict["verdict"] == "safe" and "no sharp boundary" in verdict["note"]
+    # without a threshold, or with a steep end, it stays undecided (a boundary may lie just beyond)
+    assert morbidelli_varma_1988_verdict(0.3, gentle)["verdict"] == "undecided"
+    steep = locate_sensitivity_maximum(lambda p: math.exp(5.0 * p), 1.0, 2.0, n_coarse=9)   # s = 5 p
+    assert not steep.decided and abs(steep.s_max) == pytest.approx(10.0, rel=1e-6)
+    assert morbidelli_varma_1988_verdict(1.5, steep, s_threshold=3.0)["verdict"] == "undecided"
+
+
 # ---------------------------------------------------------------------------------------
 # Reference tube: invariants and an independent integration in z
 # ---------------------------------------------------------------------------------------

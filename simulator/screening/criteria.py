@@ -906,8 +906,9 @@ def morbidelli_varma_1988_verdict(phi, maximum, s_threshold=None):
         Result of :func:`locate_sensitivity_maximum` over a range containing phi, [-]
     s_threshold : float, optional
         If given, a maximum with |s_max| below it is read as "no sharp boundary in the range"
-        and the verdict is "safe". No published value; the project notes suggest ~1 (common
-        practice, no source), [-]
+        and the verdict is "safe"; so is a maximum at an end of the range below it when no
+        evaluation failed (the largest |s| in the range is then below the threshold). No
+        published value; the project notes suggest ~1 (common practice, no source), [-]
 
     Returns
     -------
@@ -931,6 +932,14 @@ def morbidelli_varma_1988_verdict(phi, maximum, s_threshold=None):
     phi = float(phi)
     out = _result("undecided", float(maximum.phi), phi, "morbidelli_varma1988")
     out["s_max"] = float(maximum.s_max)
+    if maximum.found and not maximum.decided and maximum.failed == 0 and s_threshold is not None \
+            and abs(maximum.s_max) < float(s_threshold):
+        # the largest |s| of a scan without failures lies at an end of the range but is still below the
+        # threshold: no sharp boundary anywhere in the range (it is the largest |s| there)
+        out.update(verdict="safe",
+                   note=(f"|s| at most {abs(maximum.s_max):.3g} < {float(s_threshold):g} over the range (largest "
+                         "at its end): no sharp boundary in the range"))
+        return out
     if not maximum.found or not maximum.decided:
         out["note"] = maximum.reason or "no maximum of |s| located"
         return out

@@ -788,7 +788,9 @@ def _risk(criteria, critical, excess, sensitivity_levels, scale, key):
     risk = {UNACCEPTABLE: "runaway", REVIEW: "sensitive", ACCEPTABLE: "adequate margin"}[level]
     if level != ACCEPTABLE:
         return risk, "; ".join(found[level])
-    return risk, (f"every criterion safe, every margin outside its review margin (feed fractions 10 %, "
+    semenov = criteria.get("semenov", {}).get("verdict")
+    aside = " (the Semenov bound, only sufficient, is exceeded)" if semenov == "undecided" else ""
+    return risk, (f"every criterion safe{aside}, every margin outside its review margin (feed fractions 10 %, "
                   f"temperatures R Tc^2/E = {scale:.1f} K, hot spot below T_m a quarter of that) and no "
                   f"sensitivity above 1 (thresholds: common practice, no source)")
 
