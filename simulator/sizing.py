@@ -80,12 +80,18 @@ def binding(cand):
     return next((k for k in PRIORITY if not cand["meets"].get(k, True)), None)
 
 
-def _design(cand):
-    """The complete design of one evaluated candidate: what a re-run with its count and length gives."""
+def _design(case, cand):
+    """The complete design of one evaluated candidate: what a re-run with its count and length gives.
+
+    ``volume_m3`` and ``catalyst_mass_kg`` are those installed (all tubes over their whole length,
+    [m^3], [kg]; catalyst None for an empty tube).
+    """
+    volume = cand["tube_count"] * math.pi / 4.0 * case.tube.inner_diameter ** 2 * cand["tube_length_m"]
     return {"tube_count": cand["tube_count"], "tube_length_m": cand["tube_length_m"],
             "outlet_conversion": cand["outlet_conversion"], "pressure_drop_Pa": cand["pressure_drop_Pa"],
-            "hot_spot_K": cand["hot_spot_K"], "volume_m3": cand["volume_m3"],
-            "catalyst_mass_kg": cand["catalyst_mass_kg"], "status": cand["status"]}
+            "hot_spot_K": cand["hot_spot_K"], "volume_m3": volume,
+            "catalyst_mass_kg": None if case.bed is None else volume * case.bed.bulk_density,
+            "status": cand["status"]}
 
 
 def length_for_count(case):
@@ -114,7 +120,7 @@ def length_for_count(case):
     cut = _evaluate(_with(case, length=best["length_to_target_m"]), "design at the length found")
     candidates.append(cut)
     return {"feasible": True, "binding_constraint": "target_conversion", "note": "",
-            "design": _design(cut), "candidates": candidates}
+            "design": _design(case, cut), "candidates": candidates}
 
 
 def _why_not(cand):
@@ -259,7 +265,7 @@ def count_for_length(case):
         else:
             n_lo = mid
     bound = binding(ev(n_lo)) if n_lo >= 1 else "none (a single tube meets every requirement)"
-    return {"feasible": True, "binding_constraint": bound, "note": "", "design": _design(ev(n_hi)),
+    return {"feasible": True, "binding_constraint": bound, "note": "", "design": _design(case, ev(n_hi)),
             "candidates": candidates()}
 
 

@@ -256,3 +256,18 @@ def test_sizing_json_is_finite_and_the_table_says_not_computed(write_case, monke
     json.dumps(report, allow_nan=False)
     assert report["count_for_given_length"]["design"]["hot_spot_K"] is None
     assert "hot spot not computed" in format_sizing(report)
+
+
+def test_design_volume_and_catalyst_are_the_installed_ones(write_case):
+    # (a) ends at the target, so its installed volume is the volume to the target of a direct run
+    import math
+
+    report = size(load_case(write_case(_case(length="1 m"))))
+    for part in ("length_for_given_count", "count_for_given_length"):
+        d = report[part]["design"]
+        volume = d["tube_count"] * math.pi / 4 * 0.030 ** 2 * d["tube_length_m"]
+        assert d["volume_m3"] == pytest.approx(volume, rel=1e-12)
+        assert d["catalyst_mass_kg"] == pytest.approx(1000.0 * volume, rel=1e-12)
+    a = report["length_for_given_count"]["design"]
+    direct = _run(write_case, "long.toml", length="8 m")
+    assert a["volume_m3"] == pytest.approx(direct.design["volume_m3"], rel=1e-6)
