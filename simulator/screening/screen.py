@@ -667,7 +667,9 @@ def _profile_criteria(result, model):
     """(inflection verdict dict, Adler-Enig verdict dict) on the rising branch of a profile."""
     z, T, X, dTdz, dTdX, keep = _profile_derivatives(result, model)
     if len(z) < 5:
-        undecided = {"verdict": "undecided", "critical": 0.0, "value": None, "note": "hot spot at the inlet"}
+        undecided = {"verdict": "undecided", "critical": 0.0, "value": None,
+                     "note": "the highest temperature is at or next to the inlet: no rising branch of the profile "
+                             "to test"}
         return dict(undecided, source="van_welsenaere_froment1970"), dict(undecided, source="adler_enig1964")
     infl = C.van_welsenaere_froment_1970_inflection_verdict(z, T, dTdz)
     ae = C.adler_enig_1964_verdict(X[keep], T[keep], dT_dx=dTdX[keep]) if keep.sum() >= 5 else \
