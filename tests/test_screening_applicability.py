@@ -175,3 +175,35 @@ def test_dominant_reaction_without_the_key_species_gives_undefined_groups_not_a_
     assert report["criteria"]["semenov"]["verdict"] == "undecided"
     assert report["criteria"]["barkelew"]["verdict"] == "undecided"
     assert _finite(report)
+
+
+@pytest.mark.parametrize("E, words", [("-50 kJ/mol", "does not rise with temperature"),
+                                      ("1e-300 J/mol", "<= 4"),
+                                      ("10 kJ/mol", "<= 4")],
+                         ids=["negative", "denormal", "gamma-below-4"])
+def test_low_or_negative_activation_energy_is_not_screened(write_case, E, words):
+    # found by fuzzing: E = -50 kJ/mol made the Semenov verdict raise (psi < 0); E = 1e-300 J/mol made the
+    # maxima-curve temperature raise (E <= 4 R Tc); gamma = 10e3 / (R 500 K) = 2.4 has no critical point
+    report = screen(load_case(write_case(_bed(_reaction("A => B", "2e3 m^3/(kg*s)", E)))))
+    assert report["applicable"] is False and words in report["reason"]
+    assert _finite(screening_json(report))
+
+
+def test_report_words_for_a_tube_screening_does_not_apply_to(write_case):
+    from simulator import simulate
+    from simulator.report.build import _screening
+    from simulator.report.context import build_context
+
+    flags = {}
+    for name, text in (("heated", HEATED_COIL), ("low-gamma", _bed(_reaction("A => B", "2e3 m^3/(kg*s)",
+                                                                                "10 kJ/mol")))):
+        case = load_case(write_case(text, name=f"{name}.toml"))
+        screening, reason = _screening(case)
+        assert screening is None and reason.endswith("runaway screening does not apply")
+        context = build_context(case, simulate(case), None, None, screening_reason=reason)
+        flags[name] = {f["label"]: f for f in context["summary"]["flags"]}
+        assert flags[name]["Runaway risk"]["level"] == "acceptable"
+        assert flags[name]["Runaway risk"]["text"].startswith("Not applicable")
+    # heat taken up in net: no reaction hot spot; an exothermic tube with a slow-rising rate still has one
+    assert flags["heated"]["Hot spot"]["text"].startswith("No reaction hot spot")
+    assert flags["low-gamma"]["Hot spot"]["text"].startswith("Hot spot")

@@ -90,7 +90,9 @@ def _hot_spot_flag(case, result, screening, reason=None):
                 "text": f"No hot spot by construction: the case is isothermal at {fixed(case.feed.temperature)} K "
                         f"(heat.mode = \"isothermal\"); the wall duty that holds it is "
                         f"{fmt(result.Q[-1] / 1e3, 4)} kW{limit_text}."}
-    if not _exothermic(result) or _not_applicable(reason):
+    from simulator.screening.screen import NO_EXOTHERMIC_PATH
+
+    if not _exothermic(result) or (_not_applicable(reason) and NO_EXOTHERMIC_PATH in reason):
         why = ("the reaction path is not exothermic" if not _exothermic(result)
                else reason.removesuffix(".").replace(", runaway screening does not apply", "")
                .replace(": runaway screening does not apply", ""))

@@ -20,8 +20,9 @@ Applicability (decided from the whole tube, :func:`applicability`). Runaway
 screening applies when the reactions release heat in net along the tube
 (sum_i (F_in,i - F_out,i) h_i(T_feed) > 0), the key species has an exothermic
 path (positive adiabatic rise) and the reaction that releases the most heat has
-a positive activation energy (otherwise its rate does not rise with
-temperature: no thermal feedback). Where it does not apply, ``screen`` says so
+gamma = E/(R Tc) > 4 (at E <= 0 its rate does not rise with temperature; for
+gamma <= 4 the Semenov model has no critical point, Semenov 1928, and the
+maxima curve no extremum, Van Welsenaere-Froment 1970: no thermal runaway). Where it does not apply, ``screen`` says so
 plainly (``applicable: false`` with the reason) and screens nothing. A tube
 heated by its medium with a net-exothermic reaction is still screened: an
 exothermic reaction heated to ignition can run away.
@@ -76,6 +77,8 @@ CAUTIONS = (
 
 #: The words that end every reason why screening does not apply (the report looks for them).
 NOT_APPLICABLE = "runaway screening does not apply"
+#: The words that open the reason when the reactions release no heat in net (no reaction hot spot).
+NO_EXOTHERMIC_PATH = "no exothermic path"
 SENSITIVITY_PARAMETERS = ("feed_mole_fraction", "inlet_temperature", "medium_temperature",
                           "overall_coefficient", "mass_flow")
 SOLVER = {"rtol": 1e-10, "atol_scale": 1e-12}
@@ -265,19 +268,24 @@ def applicability(case, result, model):
     rise = result.adiabatic_temperature_rise
     reasons = []
     if not q_net > 0.0:
-        reasons.append(f"no exothermic path along the tube: the reactions take up heat in net (net heat release "
+        reasons.append(f"{NO_EXOTHERMIC_PATH} along the tube: the reactions take up heat in net (net heat release "
                        f"{q_net / 1e3:+.4g} kW)")
     elif not (math.isfinite(rise) and rise > 0.0):
         what = (f"adiabatic rise {rise:+.4g} K" if math.isfinite(rise)
                 else "complete conversion cannot even happen adiabatically")
-        reasons.append(f"no exothermic path for the key species {case.design.key_species} ({what})")
+        reasons.append(f"{NO_EXOTHERMIC_PATH} for the key species {case.design.key_species} ({what})")
     if reasons and duty > 0.0 and above <= 0.0:
         reasons.append(f"the medium is hotter than the gas all along the tube and supplies {duty / 1e3:.4g} kW")
     E = case.reactions[j].activation_energy
+    gamma = E / (R * case.heat.medium_temperature)
     if not reasons and not E > 0.0:
         reasons.append(f"the reaction that releases the most heat ({case.reactions[j].equation}) has an activation "
-                       f"energy of {E / 1e3:.4g} kJ/mol (gamma = E/(R Tc) = {E / (R * case.heat.medium_temperature):.3g}): "
+                       f"energy of {E / 1e3:.4g} kJ/mol (gamma = E/(R Tc) = {gamma:.3g}): "
                        "its rate does not rise with temperature, so there is no thermal feedback to run away")
+    elif not reasons and not gamma > 4.0:
+        reasons.append(f"the reaction that releases the most heat ({case.reactions[j].equation}) has gamma = "
+                       f"E/(R Tc) = {gamma:.3g} <= 4: its rate rises too slowly with temperature for a thermal "
+                       "runaway (the Semenov and maxima-curve criteria have no critical point there)")
     return {"applicable": not reasons,
             "reason": ("; ".join(reasons) + ": " + NOT_APPLICABLE) if reasons else "",
             "dominant": j, "net_heat_release_W": q_net,
