@@ -29,7 +29,7 @@ import numpy as np
 from simulator.model.build import build_model
 from simulator.solve.integrate import simulate
 from simulator.units import R
-from simulator.verdicts import assumption_level
+from simulator.verdicts import assumption_level, null_where_not_finite
 
 NAN = float("nan")
 
@@ -62,18 +62,32 @@ def _change(case, variant, reference, label_variant, label_reference):
     """(variant - reference) / reference * 100 for the sizing quantity, or None with the reason."""
     key, name = _design_quantity(case)
     v, r = variant[key], reference[key]
-    if v is None or r is None:
+    outlets = (f"outlet conversions {label_variant} {variant['outlet_conversion']:.4f}, "
+               f"{label_reference} {reference['outlet_conversion']:.4f}")
+    if math.isnan(case.design.target_conversion):
+        return None, (f"no target given (design.target_conversion): the design change is measured on the "
+                      f"{name} to a target; {outlets}")
+    if v is None or r is None or r == 0.0:
         missing = [lab for lab, val in ((label_variant, v), (label_reference, r)) if val is None]
+        if not missing:
+            return None, f"the target is reached at the inlet: no {name} to compare; {outlets}"
         verb = "does" if len(missing) == 1 else "do"
         return None, (f"the {' and the '.join(missing)} model{'s' if len(missing) > 1 else ''} {verb} not reach "
-                      f"the target conversion in the given "
-                      f"tube; outlet conversions {label_variant} {variant['outlet_conversion']:.4f}, "
-                      f"{label_reference} {reference['outlet_conversion']:.4f}")
+                      f"the target conversion {case.design.target_conversion:.4g} in the given tube; {outlets}")
     return (v - r) / r * 100.0, f"{name} to reach the target"
 
 
+def _conversion_change(variant, reference):
+    """Outlet conversion of the variant minus that of the reference, [-] (needs no target)."""
+    a, b = variant["outlet_conversion"], reference["outlet_conversion"]
+    return None if a is None or b is None else a - b
+
+
 def mole_change(case):
-    """(epsilon, delta) of the key species: delta = sum(nu) / |nu_key| of its main reaction, eps = y_key,0 * delta."""
+    """(epsilon, delta) of the key species: delta = sum(nu) / |nu_key| of its main reaction, eps = y_key,0 * delta.
+
+    (None, None) when no reaction consumes the key species.
+    """
     key = case.design.key_species
     y0 = dict(case.feed.mole_fractions)[key]
     best = None
@@ -83,7 +97,23 @@ def mole_change(case):
             delta = sum(nu.values()) / -nu[key]
             if best is None or abs(delta) > abs(best):
                 best = delta
-    return y0 * best, best
+    return (None, None) if best is None else (y0 * best, best)
+
+
+def isothermal_threshold(case):
+    """Default limit of max |T - T_feed| [K] and where it comes from.
+
+    0.1 R T_feed^2 / |E|_max: the temperature change that moves the most temperature-sensitive rate
+    constant by about 10 % (d ln k / dT = E / (R T^2)). Without an activation energy the rate
+    constants do not depend on T, but the gas concentrations do (c = P / (Z R T)): 0.1 T_feed then
+    moves them by about 10 %. The 10 % is common practice, no source.
+    """
+    T0 = case.feed.temperature
+    E = max(abs(r.activation_energy) for r in case.reactions)
+    if E > 0:
+        return 0.1 * R * T0 ** 2 / E, "0.1 R T_feed^2 / E_max: about 10 % change of the rate constant (common practice)"
+    return 0.1 * T0, ("0.1 T_feed: no activation energy, so about 10 % change of the gas concentrations "
+                      "(common practice)")
 
 
 def check_assumptions(case):
@@ -103,19 +133,18 @@ def check_assumptions(case):
     full, ideal = _numbers(full_result), _numbers(ideal_result)
     change, basis = _change(case, ideal, full, "ideal", "full")
     T0, P0 = case.feed.temperature, case.feed.pressure
-    E_max = max(r.activation_energy for r in case.reactions)
     th = case.assumptions
     entries = {}
 
     # isothermal
     value = float(np.max(np.abs(full_result.T - T0)))
-    limit = th.isothermal if not math.isnan(th.isothermal) else (0.1 * R * T0 ** 2 / E_max if E_max > 0 else math.inf)
+    limit, limit_source = isothermal_threshold(case)
+    if not math.isnan(th.isothermal):
+        limit, limit_source = th.isothermal, "case [assumptions] table"
     variant = _numbers(simulate(dataclasses.replace(case, heat=ideal_case(case).heat,
                                                     design=ideal_case(case).design)))
     entries["isothermal"] = _entry(value, limit, "K", variant, full, case, "isothermal variant", "full",
-                                   "max |T - T_feed| along the tube",
-                                   "0.1 R T_feed^2 / E_max: about 10 % change of the rate constant (common practice)"
-                                   if math.isnan(th.isothermal) else "case [assumptions] table")
+                                   "max |T - T_feed| along the tube", limit_source)
     # isobaric
     value = float((full_result.P[0] - full_result.P.min()) / P0)
     variant = _numbers(simulate(dataclasses.replace(
@@ -128,15 +157,16 @@ def check_assumptions(case):
     # constant moles
     eps, delta = mole_change(case)
     variant = _numbers(simulate(case, model=build_model(case, constant_moles=True)))
-    entries["constant_moles"] = _entry(abs(eps), th.constant_moles, "-", variant, full, case,
-                                       "constant-moles variant", "full",
-                                       f"|epsilon| = |y_key,0 * delta| (delta = {delta:+.4g})",
+    entries["constant_moles"] = _entry(None if eps is None else abs(eps), th.constant_moles, "-", variant, full,
+                                       case, "constant-moles variant", "full",
+                                       f"|epsilon| = |y_key,0 * delta| (delta = {delta:+.4g})" if delta is not None
+                                       else f"|epsilon|: no reaction consumes {case.design.key_species}",
                                        "5 % (common practice)" if th.constant_moles == 0.05
                                        else "case [assumptions] table")
     entries["constant_moles"]["epsilon"] = eps
 
     key, name = _design_quantity(case)
-    return {
+    return null_where_not_finite({
         "title": case.title,
         "key_species": case.design.key_species,
         "target_conversion": None if math.isnan(case.design.target_conversion) else case.design.target_conversion,
@@ -145,10 +175,11 @@ def check_assumptions(case):
         "full": full,
         "design_change_percent": change,
         "design_change_basis": basis,
+        "outlet_conversion_change": _conversion_change(ideal, full),
         "assumptions": entries,
         "adiabatic_temperature_rise_K": _finite(full_result.adiabatic_temperature_rise),
         "full_summary": full_result.summary(),
-    }
+    })
 
 
 def _finite(value):
@@ -157,10 +188,12 @@ def _finite(value):
 
 def _entry(value, threshold, unit, variant, full, case, label_variant, label_full, measure, threshold_source):
     change, basis = _change(case, variant, full, label_variant, label_full)
-    verdict = "holds" if value <= threshold else "fails"
-    return {"value": value, "threshold": threshold, "unit": unit,
+    measurable = value is not None and math.isfinite(value)
+    verdict = ("holds" if value <= threshold else "fails") if measurable else "unknown"
+    return {"value": value if measurable else None, "threshold": threshold, "unit": unit,
             "verdict": verdict, "level": assumption_level(verdict, change),
             "design_change_percent": change, "design_change_basis": basis,
+            "outlet_conversion_change": _conversion_change(variant, full),
             "measure": measure, "threshold_source": threshold_source}
 
 
@@ -169,10 +202,15 @@ def _ideal_gas_entry(case, full_result, full):
     Z = full_result.Z
     source = "5 % (common practice)" if th == 0.05 else "case [assumptions] table"
     if not np.any(np.isfinite(Z)):
+        model = build_model(case)
+        missing = [n for n, src in zip(model.species.names, model.critical_sources) if not src]
+        lacking = (f"no critical constants for {', '.join(missing)}" if missing
+                   else "Z could not be computed along the tube")
         return {"value": None, "threshold": th, "unit": "-", "verdict": "unknown",
                 "level": assumption_level("unknown", None), "design_change_percent": None,
-                "design_change_basis": "no critical constants for every species: Z cannot be computed; give "
-                                       "[thermo.critical.NAME]",
+                "design_change_basis": f"{lacking}: Z cannot be computed; give them under [thermo.critical.NAME] "
+                                       "(critical_temperature, critical_pressure, acentric_factor)",
+                "outlet_conversion_change": None,
                 "measure": "max |Z - 1| along the tube (Peng-Robinson)", "threshold_source": source}
     value = float(np.nanmax(np.abs(Z - 1.0)))
     if case.thermo.equation_of_state == "peng-robinson":
@@ -185,8 +223,10 @@ def _ideal_gas_entry(case, full_result, full):
         change, basis = _change(case, full, real, "full (ideal-gas)", "Peng-Robinson variant")
         basis += " (the case is ideal gas: compared with the same case on Peng-Robinson)"
     verdict = "holds" if value <= th else "fails"
+    variant, reference = (ideal, full) if case.thermo.equation_of_state == "peng-robinson" else (full, real)
     return {"value": value, "threshold": th, "unit": "-", "verdict": verdict,
             "level": assumption_level(verdict, change), "design_change_percent": change, "design_change_basis": basis,
+            "outlet_conversion_change": _conversion_change(variant, reference),
             "measure": "max |Z - 1| along the tube (Peng-Robinson)", "threshold_source": source}
 
 
@@ -195,23 +235,28 @@ def format_table(report):
     key = report["design_quantity"]
     unit = "kg" if key == "catalyst_mass_kg" else "m3"
 
-    def fmt(value, spec=".4g"):
-        return "n/a" if value is None else format(value, spec)
+    def fmt(value, spec=".4g", missing="-"):
+        return missing if value is None else format(value, spec)
 
     t, f = report["ideal"], report["full"]
+    size_missing = "not reached" if report["target_conversion"] is not None else "no target"
     lines = [report["title"],
+             "  target conversion: " + (f"{report['target_conversion']:.4g}" if report["target_conversion"]
+                                        is not None else "no target given (design.target_conversion)"),
              f"  {'':22s}{'ideal':>14s}{'full':>14s}",
-             f"  {'length to target [m]':22s}{fmt(t['length_m']):>14s}{fmt(f['length_m']):>14s}",
-             f"  {key.replace('_', ' ')[:-3] + ' [' + unit + ']':22s}{fmt(t[key]):>14s}{fmt(f[key]):>14s}",
+             f"  {'length to target [m]':22s}{fmt(t['length_m'], missing=size_missing):>14s}"
+             f"{fmt(f['length_m'], missing=size_missing):>14s}",
+             f"  {key.replace('_', ' ')[:-3] + ' [' + unit + ']':22s}{fmt(t[key], missing=size_missing):>14s}"
+             f"{fmt(f[key], missing=size_missing):>14s}",
              f"  {'outlet conversion':22s}{fmt(t['outlet_conversion']):>14s}{fmt(f['outlet_conversion']):>14s}",
              f"  design change (ideal vs full): "
              + (f"{report['design_change_percent']:+.1f} %" if report["design_change_percent"] is not None
-                else f"n/a ({report['design_change_basis']})"),
+                else f"not computed ({report['design_change_basis']})"),
              f"  {'assumption':16s}{'value':>12s}{'threshold':>12s}{'unit':>5s}{'verdict':>9s}{'level':>13s}{'design change':>16s}"]
     for name, e in report["assumptions"].items():
-        change = "n/a" if e["design_change_percent"] is None else f"{e['design_change_percent']:+.2f} %"
+        change = "-" if e["design_change_percent"] is None else f"{e['design_change_percent']:+.2f} %"
         lines.append(f"  {name:16s}{fmt(e['value']):>12s}{fmt(e['threshold']):>12s}{e['unit']:>5s}"
                      f"{e['verdict']:>9s}{e['level']:>13s}{change:>16s}")
     rise = report["adiabatic_temperature_rise_K"]
-    lines.append(f"  adiabatic temperature rise: {fmt(rise, '+.1f')} K")
+    lines.append("  adiabatic temperature rise: " + ("not defined" if rise is None else f"{rise:+.1f} K"))
     return "\n".join(lines)

@@ -34,6 +34,8 @@ REFERENCES = {
                      "methods for solving stiff and nonstiff systems of ODEs,\" SIAM J. Sci. Stat. Comput., "
                      "vol. 4, pp. 136-148, 1983 (LSODA, via scipy.integrate.odeint).",
     "semenov1928": "N.N. Semenov, \"Zur Theorie des Verbrennungsprozesses,\" Z. Phys., vol. 48, pp. 571-582, 1928.",
+    "barkelew1959": "C.H. Barkelew, \"Stability of chemical reactors,\" Chem. Eng. Prog. Symp. Ser., vol. 55, "
+                    "no. 25, pp. 37-46, 1959.",
     "van_welsenaere_froment1970": "R.J. Van Welsenaere, G.F. Froment, \"Parametric sensitivity and runaway in "
                                   "fixed bed catalytic reactors,\" Chem. Eng. Sci., vol. 25, pp. 1503-1516, 1970.",
     "adler_enig1964": "J. Adler, J.W. Enig, \"The critical conditions in thermal explosion theory with reactant "

@@ -16,6 +16,7 @@ import dataclasses
 import math
 
 from simulator.solve.integrate import simulate
+from simulator.verdicts import null_where_not_finite
 
 MAX_LENGTH_FACTOR = 64.0      # search up to 64x the given length in (a)
 MAX_COUNT_FACTOR = 4096       # search up to 4096x the given count in (b)
@@ -37,7 +38,7 @@ def _evaluate(case, kind):
     result = simulate(case)
     d = result.design
     hot = result.hot_spot
-    whole_tube = kind == "count for the given length"     # the tube keeps its length: judge all of it
+    whole_tube = kind != "length for the given count"     # the tube keeps its length: judge all of it
     if d["reached"] and not whole_tube:
         z = d["length_m"]
         mask = result.z <= z + 1e-12
@@ -79,8 +80,27 @@ def binding(cand):
     return next((k for k in PRIORITY if not cand["meets"].get(k, True)), None)
 
 
+def _design(case, cand):
+    """The complete design of one evaluated candidate: what a re-run with its count and length gives.
+
+    ``volume_m3`` and ``catalyst_mass_kg`` are those installed (all tubes over their whole length,
+    [m^3], [kg]; catalyst None for an empty tube).
+    """
+    volume = cand["tube_count"] * math.pi / 4.0 * case.tube.inner_diameter ** 2 * cand["tube_length_m"]
+    return {"tube_count": cand["tube_count"], "tube_length_m": cand["tube_length_m"],
+            "outlet_conversion": cand["outlet_conversion"], "pressure_drop_Pa": cand["pressure_drop_Pa"],
+            "hot_spot_K": cand["hot_spot_K"], "volume_m3": volume,
+            "catalyst_mass_kg": None if case.bed is None else volume * case.bed.bulk_density,
+            "status": cand["status"]}
+
+
 def length_for_count(case):
-    """(a) Length that reaches the target with the case's tube count; dict with the answer and candidates."""
+    """(a) Length that reaches the target with the case's tube count.
+
+    Returns a dict: ``feasible``, ``binding_constraint``, ``note``, ``design`` (the complete design of
+    the case's tube count cut at the target crossing, from a re-run of exactly that tube; None when
+    no length works) and the ``candidates`` evaluated.
+    """
     length = case.tube.length
     candidates = []
     while True:
@@ -93,13 +113,14 @@ def length_for_count(case):
         length *= 4.0
     best = candidates[-1]
     failing = binding(best)
-    answer = best["length_to_target_m"] if failing is None else None
-    return {"tube_count": case.tube.count, "length_m": answer, "feasible": answer is not None,
-            "binding_constraint": failing or "target_conversion", "volume_m3": best["volume_m3"] if answer else None,
-            "catalyst_mass_kg": best["catalyst_mass_kg"] if answer else None,
-            "pressure_drop_Pa": best["pressure_drop_Pa"] if answer else None,
-            "hot_spot_K": best["hot_spot_K"] if answer else None,
-            "note": "" if answer else _why_not(best), "candidates": candidates}
+    if failing is not None:
+        return {"feasible": False, "binding_constraint": failing, "note": _why_not(best), "design": None,
+                "candidates": candidates}
+    # the tube cut at the crossing, run as it is: the design a re-run with this count and length reproduces
+    cut = _evaluate(_with(case, length=best["length_to_target_m"]), "design at the length found")
+    candidates.append(cut)
+    return {"feasible": True, "binding_constraint": "target_conversion", "note": "",
+            "design": _design(case, cut), "candidates": candidates}
 
 
 def _why_not(cand):
@@ -111,8 +132,99 @@ def _why_not(cand):
             f"pressure drop {cand['pressure_drop_Pa']:.4g} Pa)")
 
 
+def _probes(n0, n_max):
+    """Tube counts to try from n0 outwards, nearest (by ratio) first: 2 n0, n0/2, 4 n0, n0/4, ...
+
+    >>> _probes(12, 100)
+    [24, 6, 48, 3, 96, 1]
+    """
+    up = []
+    n = n0 * 2
+    while n <= n_max:
+        up.append(n)
+        n *= 2
+    down = []
+    n = n0 // 2
+    while n >= 1:
+        down.append(n)
+        n //= 2
+    if down and down[-1] != 1:
+        down.append(1)
+    out = []
+    for k in range(max(len(up), len(down))):
+        out += up[k:k + 1] + down[k:k + 1]
+    return out
+
+
+def _failing(cand):
+    return {k for k, ok in cand["meets"].items() if not ok}
+
+
+def _no_count_note(cache, split=None):
+    """Why no tube count works: where each requirement fails among the counts tried.
+
+    ``split`` = (a, b): adjacent counts where the failing requirements change over completely (a
+    fails only what more tubes cure, b = a + 1 only what fewer tubes cure), so no whole number fits.
+    """
+    counts = sorted(cache)
+    parts = []
+    for req in PRIORITY:
+        bad = [n for n in counts if not cache[n]["meets"].get(req, True)]
+        if not bad:
+            continue
+        if len(bad) == len(counts):
+            where = "at every count tried"
+        elif bad == counts[:len(bad)]:
+            where = f"with {_tubes(bad[-1])} or fewer"
+        elif bad == counts[-len(bad):]:
+            where = f"with {_tubes(bad[0])} or more"
+        else:
+            where = "at " + ", ".join(str(n) for n in bad) + " tubes"
+        parts.append(f"{req} fails {where}")
+    text = f"no tube count from {counts[0]} to {counts[-1]} meets every requirement ({'; '.join(parts)})"
+    if split is not None:
+        a, b = split
+        more, fewer = sorted(_failing(cache[a])), sorted(_failing(cache[b]))
+        text += (f": {' and '.join(more)} need{'s' if len(more) == 1 else ''} at least {_tubes(b)} but "
+                 f"{' and '.join(fewer)} allow{'s' if len(fewer) == 1 else ''} at most {_tubes(a)}")
+    return text + "; change the length, the diameter, the medium or the requirements."
+
+
+def _window(ev, a, b):
+    """Bisection on whole counts between a (fails only what more tubes cure) and b (fails only what
+    fewer tubes cure): a feasible count, or None with the adjacent pair where the failures switch."""
+    low, high = _failing(ev(a)), _failing(ev(b))
+    while b - a > 1:
+        mid = (a + b) // 2
+        failing = _failing(ev(mid))
+        if not failing:
+            return mid, None
+        if failing <= low:
+            a = mid
+        elif failing <= high:
+            b = mid
+        else:
+            return None, (a, b)       # both kinds fail at once: the requirements overlap here
+    return None, (a, b)
+
+
 def count_for_length(case):
-    """(b) Smallest tube count that meets every requirement with the case's tube length."""
+    """(b) Smallest tube count that meets every requirement with the case's tube length.
+
+    The feed is fixed, so the count sets the flow per tube: more tubes give each mole more residence
+    time, wall area and less pressure drop, but in a heated (or strongly cooled) tube they also bring
+    the gas closer to the medium temperature. Requirements may therefore fail on either side of the
+    case's count. The search probes counts outwards from the case's count in both directions (2 n,
+    n/2, 4 n, n/4, ... down to 1 and up to :data:`MAX_COUNT_FACTOR` n). Where two neighbouring probes
+    fail disjoint requirements (the lower one what more tubes cure, the upper one what fewer tubes
+    cure), it bisects on whole numbers between them. From the first count that works it bisects
+    downwards to the smallest. The feasible counts are taken to form one interval, as they do when
+    each requirement changes monotonically with the count.
+
+    Returns a dict: ``feasible``, ``binding_constraint`` (what one tube fewer fails), ``note``,
+    ``design`` (the complete design of that count at the case's length; None when no count works)
+    and the ``candidates`` evaluated.
+    """
     cache = {}
 
     def ev(n):
@@ -120,48 +232,58 @@ def count_for_length(case):
             cache[n] = _evaluate(_with(case, count=n), "count for the given length")
         return cache[n]
 
-    n_hi = max(1, case.tube.count)
-    while not ev(n_hi)["feasible"] and n_hi < MAX_COUNT_FACTOR * max(1, case.tube.count):
-        n_hi *= 2
-    if not ev(n_hi)["feasible"]:
-        worst = ev(n_hi)
-        return {"length_m": case.tube.length, "tube_count": None, "feasible": False,
-                "binding_constraint": binding(worst),
-                "note": f"no count up to {n_hi} meets the requirements; " + _why_not(worst),
-                "candidates": [cache[k] for k in sorted(cache)]}
-    n_lo = 0
-    # find an infeasible lower bound by halving
-    probe = n_hi // 2
-    while probe >= 1 and ev(probe)["feasible"]:
-        n_hi, probe = probe, probe // 2
-    n_lo = probe  # infeasible (or 0)
+    def candidates():
+        return [cache[k] for k in sorted(cache)]
+
+    n0 = max(1, case.tube.count)
+    found, split = (n0 if ev(n0)["feasible"] else None), None
+    for n in ([] if found else _probes(n0, MAX_COUNT_FACTOR * n0)):
+        if ev(n)["feasible"]:
+            found = n
+            break
+        counts = sorted(cache)
+        pairs = [(a, b) for a, b in zip(counts, counts[1:]) if not (_failing(cache[a]) & _failing(cache[b]))]
+        if pairs:
+            found, split = _window(ev, *pairs[0])
+            break
+    if found is None:
+        return {"feasible": False, "binding_constraint": binding(ev(n0)), "note": _no_count_note(cache, split),
+                "design": None, "candidates": candidates()}
+    # bisect down to the smallest feasible count, from the nearest failing count below (or 0)
+    n_hi = found
+    below = [n for n in cache if n < n_hi and not cache[n]["feasible"]]
+    n_lo = max(below) if below else 0
+    if n_lo == 0:
+        probe = n_hi // 2
+        while probe >= 1 and ev(probe)["feasible"]:
+            n_hi, probe = probe, probe // 2
+        n_lo = probe  # infeasible (or 0)
     while n_hi - n_lo > 1:
         mid = (n_lo + n_hi) // 2
         if ev(mid)["feasible"]:
             n_hi = mid
         else:
             n_lo = mid
-    chosen = ev(n_hi)
-    if n_lo >= 1:
-        bound = binding(ev(n_lo))
-    else:
-        bound = "none (a single tube meets every requirement)"
-    return {"length_m": case.tube.length, "tube_count": n_hi, "feasible": True, "binding_constraint": bound,
-            "volume_m3": chosen["volume_m3"], "catalyst_mass_kg": chosen["catalyst_mass_kg"],
-            "length_to_target_m": chosen["length_to_target_m"], "pressure_drop_Pa": chosen["pressure_drop_Pa"],
-            "hot_spot_K": chosen["hot_spot_K"], "note": "",
-            "candidates": [cache[k] for k in sorted(cache)]}
+    bound = binding(ev(n_lo)) if n_lo >= 1 else "none (a single tube meets every requirement)"
+    return {"feasible": True, "binding_constraint": bound, "note": "", "design": _design(case, ev(n_hi)),
+            "candidates": candidates()}
 
 
 def size(case):
-    """Both sizings; the ``sizing.json`` content."""
+    """Both sizings, kept apart; the ``sizing.json`` content.
+
+    (a) and (b) are two separate answers, each a complete design of its own (tube count, length,
+    outlet conversion, pressure drop, hot spot, volume, catalyst mass): the length of (a) belongs
+    to the case's count and the count of (b) to the case's length. Taken together they are not a
+    design, so nothing of either is written at the top level.
+    """
     if math.isnan(case.design.target_conversion):
         from simulator.errors import CaseError
 
         raise CaseError(f"{case.source_path}: design.target_conversion: missing; sizing needs a target.")
     a = length_for_count(case)
     b = count_for_length(case)
-    return {
+    return null_where_not_finite({
         "title": case.title,
         "target_conversion": case.design.target_conversion,
         "requirements": {
@@ -169,27 +291,47 @@ def size(case):
             else case.design.max_pressure_drop,
             "temperature_limit_K": None if math.isnan(case.design.temperature_limit)
             else case.design.temperature_limit},
-        "length_m": a["length_m"],
-        "tube_count": b["tube_count"],
-        "binding_constraint": b["binding_constraint"],
-        "length_for_given_count": {k: v for k, v in a.items() if k != "candidates"},
-        "count_for_given_length": {k: v for k, v in b.items() if k != "candidates"},
+        "length_for_given_count": dict({k: v for k, v in a.items() if k != "candidates"},
+                                       given={"tube_count": case.tube.count}),
+        "count_for_given_length": dict({k: v for k, v in b.items() if k != "candidates"},
+                                       given={"tube_length_m": case.tube.length}),
         "candidates": a["candidates"] + b["candidates"],
-    }
+    })
+
+
+def _tubes(n):
+    return f"{n} tube" if n == 1 else f"{n} tubes"
 
 
 def format_sizing(report):
-    """Terminal table of a sizing."""
+    """Terminal table of a sizing: the two answers, each on its own lines."""
     a, b = report["length_for_given_count"], report["count_for_given_length"]
 
-    def f(v, spec=".4g"):
-        return "n/a" if v is None else format(v, spec)
+    def f(value, spec, unit="", scale=1.0):
+        return "not computed" if value is None else f"{value / scale:{spec}}{unit}"
 
-    lines = [report["title"],
-             f"  target conversion {report['target_conversion']:.4g}",
-             f"  (a) {a['tube_count']} tubes: length {f(a['length_m'])} m, binding {a['binding_constraint']}"
-             + (f" -- {a['note']}" if a["note"] else ""),
-             f"  (b) length {f(b['length_m'])} m: {f(b['tube_count'])} tubes, binding {b['binding_constraint']}"
-             + (f" -- {b['note']}" if b["note"] else ""),
-             f"  candidates evaluated: {len(report['candidates'])}"]
+    def design_line(d):
+        return (f"      design: {_tubes(d['tube_count'])} of {d['tube_length_m']:.4g} m, outlet conversion "
+                f"{f(d['outlet_conversion'], '.4f')}, pressure drop {f(d['pressure_drop_Pa'], '.4g', ' bar', 1e5)}, "
+                f"hot spot {f(d['hot_spot_K'], '.1f', ' K')}")
+
+    lines = [report["title"], f"  target conversion {report['target_conversion']:.4g}"]
+    n = a["given"]["tube_count"]
+    if a["feasible"]:
+        lines += [f"  (a) length for the given {_tubes(n)}: {a['design']['tube_length_m']:.4g} m "
+                  f"(set by {a['binding_constraint']})", design_line(a["design"])]
+    else:
+        lines.append(f"  (a) length for the given {_tubes(n)}: none ({a['binding_constraint']}) -- {a['note']}")
+    length = b["given"]["tube_length_m"]
+    if b["feasible"]:
+        count = b["design"]["tube_count"]
+        why = ("a single tube meets every requirement" if count == 1
+               else f"one tube fewer fails {b['binding_constraint']}")
+        lines += [f"  (b) tube count for the given length {length:.4g} m: {count} ({why})",
+                  design_line(b["design"])]
+    else:
+        lines.append(f"  (b) tube count for the given length {length:.4g} m: none -- {b['note']}")
+    lines += ["  (a) and (b) are separate answers: the length of (a) goes with the given count, the count of "
+              "(b) with the given length.",
+              f"  candidates evaluated: {len(report['candidates'])}"]
     return "\n".join(lines)

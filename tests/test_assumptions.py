@@ -237,7 +237,9 @@ def test_ideal_gas_verdict_unknown_without_critical_constants(write_case):
     report = check_assumptions(load_case(write_case(text)))
     entry = report["assumptions"]["ideal_gas"]
     assert entry["value"] is None and entry["verdict"] == "unknown" and entry["design_change_percent"] is None
-    assert "critical" in entry["design_change_basis"]
+    # names the species that lack them (A and B here; N2 is in Cantera's table), not "every species"
+    assert "no critical constants for A, B" in entry["design_change_basis"]
+    assert "every species" not in entry["design_change_basis"]
 
 
 def test_cli_writes_assumptions_json(write_case, tmp_path):
@@ -253,3 +255,44 @@ def test_cli_writes_assumptions_json(write_case, tmp_path):
     assert written["design_change_percent"] == pytest.approx(direct["design_change_percent"], rel=1e-12)
     for name in NAMES:
         assert written["assumptions"][name]["verdict"] == direct["assumptions"][name]["verdict"]
+
+
+def _no_inf_or_nan(tree):
+    """Every number in a JSON tree is finite (json.loads turns 'Infinity' and 'NaN' into floats)."""
+    if isinstance(tree, float):
+        return math.isfinite(tree)
+    if isinstance(tree, dict):
+        return all(_no_inf_or_nan(v) for v in tree.values())
+    if isinstance(tree, list):
+        return all(_no_inf_or_nan(v) for v in tree)
+    return True
+
+
+def test_zero_activation_energy_writes_finite_json(write_case, tmp_path):
+    # E = 0: the default isothermal threshold 0.1 R T^2 / E was inf, and writing assumptions.json raised
+    # "Out of range float values are not JSON compliant: inf" with a traceback.
+    path = write_case(_bed_case(E="0 kJ/mol", k="2 m^3/(kg*s)", heat='mode = "adiabatic"'))
+    out = tmp_path / "out"
+    assert main(["assumptions", str(path), "--out", str(out)]) == 0
+    written = json.loads((out / "assumptions.json").read_text())
+    assert _no_inf_or_nan(written)
+    iso = written["assumptions"]["isothermal"]
+    # without an activation energy the threshold is 0.1 T_feed (gas concentration, common practice)
+    assert iso["threshold"] == pytest.approx(50.0) and "no activation energy" in iso["threshold_source"]
+    assert iso["verdict"] in ("holds", "fails") and iso["level"] in ("acceptable", "review")
+
+
+def test_without_a_target_the_measures_and_verdicts_still_come(write_case):
+    text = _bed_case().replace("target_conversion = 0.9", "")
+    report = check_assumptions(load_case(write_case(text)))
+    assert report["target_conversion"] is None and report["design_change_percent"] is None
+    assert report["design_change_basis"].startswith("no target given")
+    assert "do not reach" not in report["design_change_basis"]
+    for name in NAMES:
+        entry = report["assumptions"][name]
+        assert entry["verdict"] in ("holds", "fails") and entry["value"] is not None
+        assert entry["design_change_basis"].startswith("no target given")
+        # the effect that needs no target: the change of outlet conversion at the given length
+        assert entry["outlet_conversion_change"] is not None and math.isfinite(entry["outlet_conversion_change"])
+    assert report["outlet_conversion_change"] == pytest.approx(
+        report["ideal"]["outlet_conversion"] - report["full"]["outlet_conversion"], abs=1e-15)

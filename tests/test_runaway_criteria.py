@@ -19,6 +19,9 @@ from scipy.optimize import brentq, minimize_scalar
 
 from simulator.screening.criteria import (
     adler_enig_1964_verdict,
+    barkelew_1959_critical_ratio,
+    barkelew_1959_critical_scale,
+    barkelew_1959_verdict,
     locate_sensitivity_maximum,
     morbidelli_varma_1988_normalized_sensitivity,
     morbidelli_varma_1988_verdict,
@@ -260,6 +263,20 @@ def test_morbidelli_varma_verdict_sides():
     assert morbidelli_varma_1988_verdict(2.0, edge)["verdict"] == "undecided"
 
 
+def test_morbidelli_varma_edge_maximum_below_the_threshold_is_no_boundary():
+    # |s| largest at the end of the range but tiny everywhere (a gently rising hot spot, as the
+    # methanol demo's feed fraction with |s| <= 0.05): no sharp boundary in the range, not "undecided"
+    gentle = locate_sensitivity_maximum(lambda p: 500.0 + 5.0 * p * p, 0.1, 0.6, n_coarse=9)
+    assert gentle.found and not gentle.decided and gentle.failed == 0 and abs(gentle.s_max) < 0.1
+    verdict = morbidelli_varma_1988_verdict(0.3, gentle, s_threshold=3.0)
+    assert verdict["verdict"] == "safe" and "no sharp boundary" in verdict["note"]
+    # without a threshold, or with a steep end, it stays undecided (a boundary may lie just beyond)
+    assert morbidelli_varma_1988_verdict(0.3, gentle)["verdict"] == "undecided"
+    steep = locate_sensitivity_maximum(lambda p: math.exp(5.0 * p), 1.0, 2.0, n_coarse=9)   # s = 5 p
+    assert not steep.decided and abs(steep.s_max) == pytest.approx(10.0, rel=1e-6)
+    assert morbidelli_varma_1988_verdict(1.5, steep, s_threshold=3.0)["verdict"] == "undecided"
+
+
 # ---------------------------------------------------------------------------------------
 # Reference tube: invariants and an independent integration in z
 # ---------------------------------------------------------------------------------------
@@ -478,3 +495,48 @@ def test_profile_tests_bracket_the_critical_point(gamma, B):
     p = profile(B, 1.005 * tb_c * B, gamma)
     out = van_welsenaere_froment_1970_inflection_verdict(p.position, p.theta, p.dtheta_dposition)
     assert out["z_hot_spot"] == pytest.approx(p.hot_spot.position, rel=1e-5)
+
+
+# ---------------------------------------------------------------------------------------
+# Barkelew (1959): envelope of the critical N/S
+# ---------------------------------------------------------------------------------------
+@pytest.mark.published("barkelew1959", "envelope of critical N/S against S (closed form from memory); "
+                                       "large-S limit e (Semenov, derived)")
+def test_barkelew_envelope_tends_to_the_semenov_value():
+    # N/S -> e = 1/psi_c(inf) as S grows: consumption stops mattering (runaway.md 1.4, derived)
+    assert barkelew_1959_critical_ratio(1e9) == pytest.approx(math.e, rel=1e-5)
+    values = [barkelew_1959_critical_ratio(S) for S in (5.0, 10.0, 30.0, 100.0, 1e3)]
+    assert all(a < b < math.e for a, b in zip(values, values[1:]))
+    # no cooling needed while S <= 2.405^1.5: the envelope is 0 there
+    assert barkelew_1959_critical_ratio(3.7) == 0.0 and barkelew_1959_critical_ratio(3.8) > 0.0
+
+
+@pytest.mark.published("barkelew1959", "envelope from memory, compared with the Morbidelli-Varma boundary "
+                                       "for gamma = inf of the project notes' reproduction (runaway.md table 1.7), "
+                                       "which the published comparisons put on Barkelew's envelope (from memory)")
+@pytest.mark.parametrize("B", [10.0, 15.0, 20.0, 30.0, 50.0, 100.0])
+def test_barkelew_envelope_against_the_reproduced_boundary(B):
+    reproduced = {10.0: 1.3050, **{b: TABLE_1_7[INF, b][0] for g, b in TABLE_1_7 if g == INF}}[B]
+    # 0.5 %: the closed form of the envelope against a 5-digit reproduction (largest gap 0.43 % at B = 100)
+    assert barkelew_1959_critical_ratio(B) == pytest.approx(reproduced, rel=5e-3)
+
+
+@pytest.mark.parametrize("gamma, B", [row for row in ROWS if row[0] != INF])
+def test_barkelew_envelope_is_conservative_at_finite_gamma(gamma, B):
+    # lower gamma lowers the true boundary (runaway.md 1.7), so the gamma = inf envelope lies above it
+    assert barkelew_1959_critical_ratio(B) > TABLE_1_7[gamma, B][0]
+
+
+def test_barkelew_verdict_sides_and_critical_scale():
+    critical = barkelew_1959_critical_ratio(20.0)
+    assert barkelew_1959_verdict(1.01 * critical * 20.0, 20.0)["verdict"] == "safe"
+    assert barkelew_1959_verdict(0.99 * critical * 20.0, 20.0)["verdict"] == "runaway"
+    assert barkelew_1959_verdict(math.inf, 20.0)["verdict"] == "safe"
+    # the factor on S (and the feed fraction) that puts the tube on the envelope
+    N, S = 49.88, 23.0
+    f = barkelew_1959_critical_scale(N, S)
+    assert N / (f * S) == pytest.approx(barkelew_1959_critical_ratio(f * S), rel=1e-10)
+    assert barkelew_1959_verdict(N, 0.999 * f * S)["verdict"] == "safe"
+    assert barkelew_1959_verdict(N, 1.001 * f * S)["verdict"] == "runaway"
+    with pytest.raises(ValueError, match="S = 0.0"):
+        barkelew_1959_verdict(1.0, 0.0)

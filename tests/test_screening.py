@@ -7,12 +7,12 @@ Van Welsenaere-Froment II / Thomas-Bowes 0.01761 atm; tolerance +-0.00005 atm as
 Derived groups at p0 = 0.018 atm: gamma 21.82, St 35.1, Da 0.705, N 49.9, B 27.6 (B scales with p0).
 """
 import json
+from pathlib import Path
 
 import pytest
 
 from simulator import load_case
 from simulator.cli import main
-from simulator.errors import CaseError
 from simulator.screening.screen import screen
 
 CASE = "froment1967_oxylene_packed_tube.toml"
@@ -76,12 +76,15 @@ def test_screening_contract(report):
                 "cautions"):
         assert key in report
     assert report["hot_spot"]["located_by"] == "event dT/dz = 0"
-    assert set(report["criteria"]) == {"semenov", "van_welsenaere_froment", "adler_enig", "morbidelli_varma"}
+    assert report["applicable"] is True
+    assert set(report["criteria"]) == {"semenov", "barkelew", "van_welsenaere_froment", "adler_enig",
+                                       "morbidelli_varma"}
     for entry in report["criteria"].values():
-        assert {"verdict", "critical", "source"} <= set(entry)
+        assert {"verdict", "critical", "source", "level"} <= set(entry)
+    assert {"level", "reason", "margin_to_maxima_curve_K"} <= set(report["hot_spot"])
     assert set(report["critical"]) == {"medium_temperature_K", "feed_mole_fraction", "inlet_temperature_K"}
     for entry in report["critical"].values():
-        assert {"value", "margin", "found"} <= set(entry)
+        assert {"value", "margin", "found", "level", "review_margin"} <= set(entry)
     assert set(report["sensitivity"]) == {"feed_mole_fraction", "inlet_temperature", "medium_temperature",
                                           "overall_coefficient", "mass_flow"}
     assert report["risk"] in ("runaway", "sensitive", "adequate margin") and report["risk_rule"]
@@ -101,9 +104,15 @@ def test_cli_writes_screening_files(cases_dir, tmp_path, capsys):
     assert "risk: " in capsys.readouterr().out
 
 
-def test_uncooled_case_is_refused(cases_dir):
-    with pytest.raises(CaseError, match=r"heat\.mode = 'isothermal'"):
-        screen(load_case(cases_dir / "decomposition_empty_tube.toml"))
+def test_uncooled_case_is_not_screened_and_says_why(cases_dir, tmp_path):
+    # a valid case (validate passes it) that the cooled-tube criteria cannot judge: exit 0, nothing
+    # screened, the reason in screening.json (it was refused with exit 2)
+    report = screen(load_case(cases_dir / "decomposition_empty_tube.toml"))
+    assert report["applicable"] is False and report["risk"] == "not screened"
+    assert 'heat.mode = "isothermal"' in report["reason"] and "cooled through its wall" in report["reason"]
+    assert "criteria" not in report and report["hot_spot"]["level"] is None
+    assert main(["screen", str(cases_dir / "decomposition_empty_tube.toml"), "--out", str(tmp_path)]) == 0
+    assert json.loads((tmp_path / "screening.json").read_text())["applicable"] is False
 
 
 @pytest.mark.published("froment1967", "runaway appears just above p0 = 0.018 atm in the source's profile figure "
@@ -112,3 +121,19 @@ def test_critical_feed_fraction_near_the_remembered_published_value(report):
     # the remembered published value is approximate (a figure, not a table); tolerance 3 % as the
     # project's reference notes give for this comparison
     assert 0.0175 <= report["critical"]["feed_mole_fraction"]["value"] <= 0.0186
+
+
+@pytest.mark.published("barkelew1959", "envelope (from memory) on the Froment (1967) tube: safe at p0 = 0.015 atm, "
+                                       "critical p0 below the Morbidelli-Varma one (the envelope is for gamma = inf)")
+def test_barkelew_on_the_published_tube(report):
+    b = report["criteria"]["barkelew"]
+    assert b["verdict"] == "safe" and b["value"] == pytest.approx(report["groups"]["N_over_B"])
+    critical_p0 = b["critical_feed_mole_fraction"]
+    # conservative: below the reproduced MV value 0.01777 atm, above the maxima-curve one 0.01614 atm
+    assert 0.01614 < critical_p0 < 0.01777
+
+
+def test_levels_agree_on_the_published_tube(report):
+    from test_screening_levels import check_levels_agree
+
+    check_levels_agree(load_case(Path(__file__).parents[1] / "cases" / CASE), report)

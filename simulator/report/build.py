@@ -24,12 +24,15 @@ def _screening(case):
     from simulator.screening.screen import screen
 
     try:
-        return screen(case), None
+        screening = screen(case)
     except CaseError as err:
         # not a cooled tube, or no exothermic path: the report says why
         reason = " ".join(err.problems)
         prefix = f"{case.source_path}: "
         return None, reason[len(prefix):] if case.source_path and reason.startswith(prefix) else reason
+    if not screening.get("applicable", True):
+        return None, screening["reason"]        # screening does not apply to this tube: the report says why
+    return screening, None
 
 
 def compute_report_inputs(case):

@@ -45,7 +45,7 @@ import math
 
 from simulator.report.context_format import _change, _finite, _pct, _pretty_rule, fixed, fmt
 from simulator.units import R
-from simulator.verdicts import DESIGN_CHANGE_REVIEW, RISK_LEVELS, assumption_level, risk_level  # noqa: F401 (re-exported)
+from simulator.verdicts import DESIGN_CHANGE_REVIEW, RISK_LEVELS, assumption_level, risk_level, worst  # noqa: F401 (re-exported)
 
 #: Relative conservation error accepted without comment, [-] (common practice, no source).
 CLOSURE_OK = 1e-6
@@ -67,7 +67,7 @@ def _exothermic(result):
     return _finite(rise) and rise > 0
 
 
-def _hot_spot_flag(case, result, screening):
+def _hot_spot_flag(case, result, screening, reason=None):
     hot = result.hot_spot
     T_hot, z_hot = hot["temperature_K"], hot["position_m"]
     limit = case.design.temperature_limit
@@ -90,40 +90,30 @@ def _hot_spot_flag(case, result, screening):
                 "text": f"No hot spot by construction: the case is isothermal at {fixed(case.feed.temperature)} K "
                         f"(heat.mode = \"isothermal\"); the wall duty that holds it is "
                         f"{fmt(result.Q[-1] / 1e3, 4)} kW{limit_text}."}
-    if not _exothermic(result):
+    from simulator.screening.screen import NO_EXOTHERMIC_PATH
+
+    if not _exothermic(result) or (_not_applicable(reason) and NO_EXOTHERMIC_PATH in reason):
+        why = ("the reaction path is not exothermic" if not _exothermic(result)
+               else reason.removesuffix(".").replace(", runaway screening does not apply", "")
+               .replace(": runaway screening does not apply", ""))
         return {"level": "review" if near_limit else "acceptable", "label": "Hot spot",
-                "text": f"No reaction hot spot (the reaction path is not exothermic); the highest temperature "
+                "text": f"No reaction hot spot ({why}); the highest temperature "
                         f"is {where} ({hot['located_by']}){limit_text}."}
-    scale_text = f"R·T²/E = {fixed(scale)} K at {fixed(T_ref)} K"
     if case.heat.exchange:
-        rise = hot.get("rise_above_medium_K")
-        rise = T_hot - T_ref if rise is None else rise
-        T_m = None
-        if screening is not None:
-            T_m = screening.get("criteria", {}).get("van_welsenaere_froment", {}).get("critical")
-        if _finite(T_m):
-            beyond = T_hot > T_m
-            criterion = (f"the maxima-curve temperature T_m = {fixed(T_m)} K (Van Welsenaere-Froment, where "
-                         f"runaway sets in by that criterion)")
-        else:
-            beyond = rise > scale
-            criterion = f"{scale_text} (the approximate distance to the maxima curve)"
-        close = _finite(T_m) and not beyond and T_m - T_hot < 0.25 * scale
-        if beyond or near_limit or close:
-            if beyond:
-                why = f"it lies {fixed(rise)} K above the medium and exceeds {criterion}"
-            elif close:
-                why = (f"it lies {fixed(rise)} K above the medium, only {fixed(T_m - T_hot)} K below {criterion}; "
-                       f"closer than a quarter of {scale_text}")
-            else:
-                why = f"it is within {scale_text} of the temperature limit"
-            return {"level": "review", "label": "Hot spot",
-                    "text": f"Hot spot {where}: {why}{limit_text}."}
+        # one rule with screening.json: the margin below the maxima curve (simulator.screening.screen)
+        verdict = (screening or {}).get("hot_spot") or {}
+        if "level" not in verdict:
+            from simulator.screening.screen import hot_spot_verdict
+
+            E = max((r.activation_energy for r in case.reactions), default=0.0)
+            verdict = hot_spot_verdict(T_hot, T_ref, E)
+        level = worst([verdict["level"], "review" if near_limit else "acceptable"])
+        near = (f"; within R·T²/E = {fixed(scale)} K of the temperature limit" if near_limit else "")
         see = (" How sensitive it is to the operating conditions is judged under Runaway risk."
-               if screening is not None and screening.get("risk") != "adequate margin" else "")
-        below = (f"below T_m = {fixed(T_m)} K of the maxima curve" if _finite(T_m) else f"below {scale_text}")
-        return {"level": "acceptable", "label": "Hot spot",
-                "text": f"Hot spot {where}, {fixed(rise)} K above the medium, {below}{limit_text}.{see}"}
+               if screening is not None and screening.get("risk") not in ("adequate margin", None) else "")
+        reason = verdict["reason"].replace("Tc^2", "Tc²")
+        return {"level": level, "label": "Hot spot",
+                "text": f"Hot spot {where}: {reason}{near}{limit_text}.{see}"}
     # adiabatic
     if not _finite(limit):
         return {"level": "review", "label": "Hot spot",
@@ -141,8 +131,17 @@ def _rise_text(result):
     return f"adiabatic rise not defined: {note}" if note else "adiabatic rise not defined"
 
 
+def _not_applicable(reason):
+    """True when the screening's reason says that runaway screening does not apply to the tube."""
+    from simulator.screening.screen import NOT_APPLICABLE
+
+    return bool(reason) and NOT_APPLICABLE in reason
+
+
 def _screening_reason(case, result, reason):
     """Why the runaway screening is not in the report (our own words where we can tell)."""
+    if _not_applicable(reason):
+        return reason.rstrip(".") + "."
     if not _exothermic(result):
         return (f"no exothermic path for {case.design.key_species} ({_rise_text(result)}): runaway "
                 f"screening does not apply.")
@@ -171,7 +170,7 @@ def _margins_text(screening, key):
 def _runaway_flag(case, result, screening, reason):
     if screening is None:
         text = _screening_reason(case, result, reason)
-        if not _exothermic(result):
+        if not _exothermic(result) or _not_applicable(reason):
             return {"level": "acceptable", "label": "Runaway risk", "text": f"Not applicable: {text}"}
         return {"level": "review", "label": "Runaway risk",
                 "text": f"Not screened although the reaction is exothermic ({_rise_text(result)}): {text} "
@@ -194,9 +193,12 @@ def _design_quantity(assumptions):
 
 def _basis_text(entry, assumptions):
     """Why an assumption has no design change, in words fit for a case without a target."""
-    basis = str(entry.get("design_change_basis", "n/a"))
+    basis = str(entry.get("design_change_basis") or "not computed")
     if assumptions.get("target_conversion") is None and "outlet conversions" in basis:
-        return "no target conversion is given; " + basis[basis.index("outlet conversions"):]
+        change = entry.get("outlet_conversion_change")
+        effect = (f"applying it alone changes the outlet conversion by {change:+.4f} at the given length"
+                  if _finite(change) else basis[basis.index("outlet conversions"):])
+        return "no target conversion is given; " + effect
     return basis
 
 
@@ -237,7 +239,8 @@ def _summary(case, result, assumptions, screening, screening_reason):
         numbers.append({"label": "Target conversion", "value": fmt(target, 4), "unit": "-"})
         if d["reached"]:
             numbers.append({"label": "Length to the target", "value": fmt(d["length_m"], 4), "unit": "m"})
-            numbers.append({"label": f"Reactor volume to the target ({case.tube.count} tubes)",
+            tubes = "1 tube" if case.tube.count == 1 else f"{case.tube.count} tubes"
+            numbers.append({"label": f"Reactor volume to the target ({tubes})",
                             "value": fmt(d["volume_m3"], 4), "unit": "m³"})
             numbers.append({"label": "Catalyst mass to the target",
                             "value": fmt(d["catalyst_mass_kg"], 4) if d["catalyst_mass_kg"] is not None
@@ -255,18 +258,21 @@ def _summary(case, result, assumptions, screening, screening_reason):
         {"label": f"{name}: position", "value": fmt(hot["position_m"], 3), "unit": "m"},
     ]
     if hot.get("rise_above_medium_K") is not None:
-        numbers.append({"label": f"{name}: above the medium", "value": fixed(hot["rise_above_medium_K"], sign=True),
-                        "unit": "K"})
+        rise_m = hot["rise_above_medium_K"]
+        # a heated tube stays below its medium: say so instead of a negative rise "above" it
+        numbers.append({"label": f"{name}: {'above' if rise_m >= 0 else 'below'} the medium",
+                        "value": fixed(abs(rise_m)), "unit": "K"})
     else:
         numbers.append({"label": f"{name}: above the feed", "value": fixed(hot["rise_above_feed_K"], sign=True),
                         "unit": "K"})
     dp = outlet["pressure_drop_Pa"]
     label = "Pressure drop" if case.pressure_drop.model != "none" else \
         "Pressure drop (not modelled: pressure_drop.model = \"none\")"
-    numbers.append({"label": label, "value": fmt(dp / 1e3, 4) if dp is not None else "n/a", "unit": "kPa"})
+    numbers.append({"label": label, "value": fmt(dp / 1e3, 4) if dp is not None else "not computed",
+                    "unit": "kPa" if dp is not None else ""})
     numbers.append({"label": "Pressure drop / feed pressure",
-                    "value": fixed(100.0 * dp / case.feed.pressure, 2) if dp is not None else "n/a",
-                    "unit": "%"})
+                    "value": fixed(100.0 * dp / case.feed.pressure, 2) if dp is not None else "not computed",
+                    "unit": "%" if dp is not None else ""})
     rise = s["adiabatic_temperature_rise_K"]
     if rise is not None:
         numbers.append({"label": f"Adiabatic temperature rise (complete conversion of {key})",
@@ -280,13 +286,13 @@ def _summary(case, result, assumptions, screening, screening_reason):
     if case.heat.exchange or case.heat.mode == "isothermal":
         Q = outlet["heat_duty_W"]
         numbers.append({"label": "Heat through the walls (negative: removed)", "value": fmt(Q / 1e3, 4)
-                        if Q is not None else "n/a", "unit": "kW"})
+                        if Q is not None else "not computed", "unit": "kW" if Q is not None else ""})
 
     flags = []
     if result.status != "completed":
         flags.append({"level": "unacceptable", "label": "Run", "text": f"Stopped before the end of the tube: "
                       f"{result.termination}."})
-    flags.append(_hot_spot_flag(case, result, screening))
+    flags.append(_hot_spot_flag(case, result, screening, screening_reason))
     flags.append(_runaway_flag(case, result, screening, screening_reason))
     if target is not None:
         if d["reached"]:

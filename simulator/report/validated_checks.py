@@ -381,6 +381,24 @@ CHECKS = ({'key': 'levenspiel1999',
               'grid), against an independent reproduction (not values printed in the paper)',
   'where': 'ordering of the criteria: regression of the structural facts stated with runaway.md table 1.7',
   'test': 'tests/test_runaway_criteria.py::test_ordering_of_criteria_and_approach_to_semenov'},
+ {'key': 'barkelew1959',
+  'citation': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+              '1959',
+  'compared': 'Envelope of the critical reaction-to-cooling ratio N/S against S and its large-S limit, '
+              'against an independent reproduction of the Morbidelli-Varma boundary for infinite activation '
+              'energy (not chart values read from the paper)',
+  'where': 'envelope of critical N/S against S (closed form from memory); large-S limit e (Semenov, derived)',
+  'test': 'tests/test_runaway_criteria.py::test_barkelew_envelope_tends_to_the_semenov_value'},
+ {'key': 'barkelew1959',
+  'citation': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+              '1959',
+  'compared': 'Envelope of the critical reaction-to-cooling ratio N/S against S and its large-S limit, '
+              'against an independent reproduction of the Morbidelli-Varma boundary for infinite activation '
+              'energy (not chart values read from the paper)',
+  'where': 'envelope from memory, compared with the Morbidelli-Varma boundary for gamma = inf of the project '
+           "notes' reproduction (runaway.md table 1.7), which the published comparisons put on Barkelew's "
+           'envelope (from memory)',
+  'test': 'tests/test_runaway_criteria.py::test_barkelew_envelope_against_the_reproduced_boundary'},
  {'key': 'morbidelli_varma1988',
   'citation': "M. Morbidelli, A. Varma, 'A generalized criterion for parametric sensitivity: application to "
               "thermal explosion theory', Chem. Eng. Sci. 43, 91, 1988",
@@ -427,6 +445,15 @@ CHECKS = ({'key': 'levenspiel1999',
               'where the published profiles run away; the dimensionless groups of the published tube',
   'where': "runaway appears just above p0 = 0.018 atm in the source's profile figure (from memory): +-3 %",
   'test': 'tests/test_screening.py::test_critical_feed_fraction_near_the_remembered_published_value'},
+ {'key': 'barkelew1959',
+  'citation': "C.H. Barkelew, 'Stability of chemical reactors', Chem. Eng. Prog. Symp. Ser. 55(25), 37-46, "
+              '1959',
+  'compared': 'Envelope of the critical reaction-to-cooling ratio N/S against S and its large-S limit, '
+              'against an independent reproduction of the Morbidelli-Varma boundary for infinite activation '
+              'energy (not chart values read from the paper)',
+  'where': 'envelope (from memory) on the Froment (1967) tube: safe at p0 = 0.015 atm, critical p0 below the '
+           'Morbidelli-Varma one (the envelope is for gamma = inf)',
+  'test': 'tests/test_screening.py::test_barkelew_on_the_published_tube'},
  {'key': 'morbidelli_varma1988',
   'citation': "M. Morbidelli, A. Varma, 'A generalized criterion for parametric sensitivity: application to "
               "thermal explosion theory', Chem. Eng. Sci. 43, 91, 1988",

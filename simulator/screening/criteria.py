@@ -184,6 +184,140 @@ def semenov_1928_verdict(psi, gamma):
 
 
 # ---------------------------------------------------------------------------------------
+# Barkelew (1959): envelope of the critical N/S against S
+# ---------------------------------------------------------------------------------------
+#: Coefficient of the S^(-2/3) correction of the Barkelew envelope, [-] (from memory; see below).
+BARKELEW_COEFFICIENT = 2.405
+
+
+def barkelew_1959_critical_ratio(S):
+    r"""Critical N/S of the Barkelew envelope at the heat-of-reaction parameter S [1]_.
+
+    Parameters
+    ----------
+    S : float
+        Heat-of-reaction parameter S = B = gamma dT_ad / Tw, the adiabatic rise in units of
+        R Tw^2/E, [-]
+
+    Returns
+    -------
+    ratio : float
+        Critical N/S: the tube is safe by the criterion if its N/S lies above it; 0 where
+        no cooling is needed (S at or below :math:`2.405^{3/2} pprox 3.73`), [-]
+
+    Raises
+    ------
+    ValueError
+        If S is not a finite number > 0.
+
+    Notes
+    -----
+    Barkelew integrated many cooled-tube profiles (first order, exponential approximation of the
+    Arrhenius law, inlet at the wall temperature) and summarised the runaway boundary as a lower
+    envelope of the critical N/S against S, N = St/Da. The envelope is written here in closed form
+
+    .. math:: \left(\frac{N}{S}\right)_c = e\left(1 - 2.405\,S^{-2/3}\right)
+
+    which tends to the Semenov value e as S grows (no consumption matters when the rise is
+    large). The closed form and its coefficient are recalled from memory, not read off the
+    paper's chart; they agree with an independent reproduction of the Morbidelli-Varma boundary
+    for gamma -> inf to within 0.5 % for S = 10-100 (project notes, runaway.md table 1.7), which
+    is the comparison the published studies make. A finite gamma lowers the true boundary, so
+    the envelope is conservative there; for other reaction orders it is an estimate.
+
+    Validity: the range of the source's chart was not seen; below S of about 5 no boundary is
+    sharp (the maximum of the normalized sensitivity is O(1) there, runaway.md 1.7).
+
+    References
+    ----------
+    .. [1] C.H. Barkelew, "Stability of chemical reactors," Chem. Eng. Prog. Symp. Ser.,
+       vol. 55, no. 25, pp. 37-46, 1959 (from memory).
+
+    Examples
+    --------
+    >>> round(barkelew_1959_critical_ratio(20.0), 4)
+    1.831
+    >>> barkelew_1959_critical_ratio(3.0)
+    0.0
+    """
+    S = _check_positive("S", S)
+    return max(0.0, math.e * (1.0 - BARKELEW_COEFFICIENT * S ** (-2.0 / 3.0)))
+
+
+def barkelew_1959_verdict(N, S):
+    """Barkelew screen of a cooled tube: N/S against the critical envelope [1]_.
+
+    Parameters
+    ----------
+    N : float
+        Cooling-to-reaction ratio St/Da of the tube; ``math.inf`` when nothing reacts at the
+        wall temperature, [-]
+    S : float
+        Heat-of-reaction parameter B of the tube, [-]
+
+    Returns
+    -------
+    dict
+        ``verdict`` "safe" if N/S is above the critical value, else "runaway";
+        ``critical`` = critical N/S, ``value`` = N/S, ``source`` = "barkelew1959".
+
+    References
+    ----------
+    .. [1] C.H. Barkelew, "Stability of chemical reactors," Chem. Eng. Prog. Symp. Ser.,
+       vol. 55, no. 25, pp. 37-46, 1959 (from memory).
+
+    Examples
+    --------
+    >>> barkelew_1959_verdict(49.9, 23.0)["verdict"]
+    'safe'
+    """
+    S = _check_positive("S", S)
+    N = _check_positive("N", N, allow_inf=True)
+    critical = barkelew_1959_critical_ratio(S)
+    ratio = N / S
+    if ratio > critical:
+        return _result("safe", critical, ratio, "barkelew1959", "N/S above the critical envelope")
+    return _result("runaway", critical, ratio, "barkelew1959", "N/S at or below the critical envelope")
+
+
+def barkelew_1959_critical_scale(N, S):
+    """Factor f on the heat-release parameter at which the tube meets the Barkelew envelope.
+
+    Scaling the feed fraction of the key species by f scales S by f and leaves N unchanged (both
+    Da and St are per mole of key species), so the critical feed fraction is f times the
+    operating one. Solves N/(f S) = (N/S)_c(f S) by bisection of the monotone difference.
+
+    Parameters
+    ----------
+    N : float
+        Cooling-to-reaction ratio of the tube, [-]
+    S : float
+        Heat-of-reaction parameter of the tube at the operating point, [-]
+
+    Returns
+    -------
+    f : float or None
+        The critical factor, None if N is infinite, [-]
+
+    >>> f = barkelew_1959_critical_scale(49.9, 23.0)
+    >>> round(49.9 / (f * 23.0) - barkelew_1959_critical_ratio(f * 23.0), 9)
+    0.0
+    """
+    S = _check_positive("S", S)
+    N = _check_positive("N", N, allow_inf=True)
+    if math.isinf(N):
+        return None
+    from scipy.optimize import brentq
+
+    def gap(log_f):
+        f = math.exp(log_f)
+        return N / (f * S) - barkelew_1959_critical_ratio(f * S)
+
+    lo, hi = math.log(BARKELEW_COEFFICIENT ** 1.5 / S), math.log(1e6 * N / S)
+    return math.exp(brentq(gap, lo, hi, xtol=1e-12))
+
+
+# ---------------------------------------------------------------------------------------
 # Van Welsenaere & Froment (1970), criterion I: maxima curve
 # ---------------------------------------------------------------------------------------
 def van_welsenaere_froment_1970_maxima_temperature(coolant_temperature, activation_energy):
@@ -772,8 +906,9 @@ def morbidelli_varma_1988_verdict(phi, maximum, s_threshold=None):
         Result of :func:`locate_sensitivity_maximum` over a range containing phi, [-]
     s_threshold : float, optional
         If given, a maximum with |s_max| below it is read as "no sharp boundary in the range"
-        and the verdict is "safe". No published value; the project notes suggest ~1 (common
-        practice, no source), [-]
+        and the verdict is "safe"; so is a maximum at an end of the range below it when no
+        evaluation failed (the largest |s| in the range is then below the threshold). No
+        published value; the project notes suggest ~1 (common practice, no source), [-]
 
     Returns
     -------
@@ -797,6 +932,14 @@ def morbidelli_varma_1988_verdict(phi, maximum, s_threshold=None):
     phi = float(phi)
     out = _result("undecided", float(maximum.phi), phi, "morbidelli_varma1988")
     out["s_max"] = float(maximum.s_max)
+    if maximum.found and not maximum.decided and maximum.failed == 0 and s_threshold is not None \
+            and abs(maximum.s_max) < float(s_threshold):
+        # the largest |s| of a scan without failures lies at an end of the range but is still below the
+        # threshold: no sharp boundary anywhere in the range (it is the largest |s| there)
+        out.update(verdict="safe",
+                   note=(f"|s| at most {abs(maximum.s_max):.3g} < {float(s_threshold):g} over the range (largest "
+                         "at its end): no sharp boundary in the range"))
+        return out
     if not maximum.found or not maximum.decided:
         out["note"] = maximum.reason or "no maximum of |s| located"
         return out
