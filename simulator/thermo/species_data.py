@@ -16,6 +16,7 @@ import numpy as np
 
 from simulator.errors import ThermoError
 from simulator.thermo.nasa7 import constant_cp_coefficients
+from simulator.units import P_STANDARD
 
 _KMOL = 1000.0
 
@@ -28,10 +29,13 @@ class SpeciesData:
     ----------
     names : tuple of str
     molar_mass : ndarray, [kg/mol]
-    nasa7 : ndarray (n, 15), [-]
+    nasa7 : ndarray (n, 15), rows on the one standard state of the kernel, 1 atm
+        (:data:`simulator.units.P_STANDARD`), whatever the file declares, [-]
     t_min, t_max : ndarray, validity range of each species' data, [K]
     elements : tuple of dict, element counts (empty for custom species)
     sources : tuple of str, where each species' data came from
+    reference_pressures : tuple of float, the standard-state pressure each species' data were
+        given at (the file's ``reference-pressure``; 1 atm for custom species), [Pa]
     has_entropy : ndarray of bool (False for custom species without a standard entropy)
     """
 
@@ -44,6 +48,7 @@ class SpeciesData:
     sources: tuple
     has_entropy: np.ndarray
     species_path: str | None
+    reference_pressures: tuple = ()
 
 
 def cantera_data_file(name):
@@ -89,15 +94,46 @@ def near(name, choices, n=5):
     return matches
 
 
+def to_standard_pressure(row, reference_pressure):
+    r"""NASA-7 row moved from the standard state at ``reference_pressure`` to 1 atm.
+
+    Parameters
+    ----------
+    row : ndarray
+        NASA-7 coefficient row of 15 floats whose entropy refers to ``reference_pressure``, [-]
+    reference_pressure : float
+        Standard-state pressure of the row (a species file's ``reference-pressure``), [Pa]
+
+    Returns
+    -------
+    row : ndarray
+        The same row with the entropy constants a7 (both ranges) shifted so that s°/R refers
+        to :data:`simulator.units.P_STANDARD`, [-]
+
+    Notes
+    -----
+    An ideal gas's entropy depends on its standard-state pressure as
+    :math:`s^\circ(P_2) = s^\circ(P_1) - R \ln(P_2/P_1)`; enthalpy and heat capacity do not.
+    Equilibrium constants built from the shifted rows refer to 1 atm throughout, so data
+    files at 1 bar and at 1 atm can be mixed in one case.
+    """
+    out = np.array(row, dtype=float)
+    shift = float(np.log(P_STANDARD / reference_pressure))
+    out[7] -= shift
+    out[14] -= shift
+    return out
+
+
 def _row_from_cantera(sp, path):
     thermo = sp.thermo
     model = thermo.input_data.get("model", "")
     c = np.asarray(thermo.coeffs, dtype=float)
     if model == "NASA7":
-        return c.copy()
+        return to_standard_pressure(c, thermo.reference_pressure)
     if model == "constant-cp":
         T0, h0, s0, cp0 = c[:4]
-        return constant_cp_coefficients(cp0 / _KMOL, h0 / _KMOL, s0 / _KMOL, T0)
+        return to_standard_pressure(constant_cp_coefficients(cp0 / _KMOL, h0 / _KMOL, s0 / _KMOL, T0),
+                                    thermo.reference_pressure)
     raise ThermoError(f"species {sp.name!r} in {path} uses the thermo model {model!r}; "
                       "tubesim supports NASA7 and constant-cp species. Declare it under "
                       f"[thermo.custom.{sp.name}] or use a NASA7 data file.")
@@ -119,7 +155,7 @@ def build_species_data(names, thermo):
     """
     custom = {c.name: c for c in thermo.custom}
     in_file = species_in_file(thermo.species_path) if thermo.species_path else {}
-    mw, rows, tmin, tmax, elements, sources, has_s = [], [], [], [], [], [], []
+    mw, rows, tmin, tmax, elements, sources, has_s, p_ref = [], [], [], [], [], [], [], []
     for name in names:
         if name in custom:
             c = custom[name]
@@ -132,6 +168,7 @@ def build_species_data(names, thermo):
             elements.append({})
             sources.append("case file: constant cp (no stated range)")
             has_s.append(not np.isnan(entropy))
+            p_ref.append(P_STANDARD)
         else:
             sp = in_file[name]
             rows.append(_row_from_cantera(sp, thermo.species_path))
@@ -142,11 +179,12 @@ def build_species_data(names, thermo):
             model = sp.thermo.input_data.get("model", "")
             sources.append(f"{thermo.species_file} ({model})")
             has_s.append(True)
+            p_ref.append(float(sp.thermo.reference_pressure))
     return SpeciesData(
         names=tuple(names), molar_mass=np.array(mw), nasa7=np.array(rows).reshape(len(names), 15),
         t_min=np.array(tmin), t_max=np.array(tmax), elements=tuple(elements),
         sources=tuple(sources), has_entropy=np.array(has_s, dtype=bool),
-        species_path=thermo.species_path,
+        species_path=thermo.species_path, reference_pressures=tuple(p_ref),
     )
 
 

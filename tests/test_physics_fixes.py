@@ -1,0 +1,100 @@
+"""Physics defects of issue 10 (7b): standard-state pressure of the species data, the
+constant-moles variant of the assumption check on Peng-Robinson.
+
+Kinds of check (DEVELOPERS.md): ``published`` against Cantera used as an independent
+reference library; ``invariant`` for the normalisation.
+"""
+import json
+
+import numpy as np
+import pytest
+
+from simulator import load_case, simulate
+
+
+def _one_bar_species_file(folder, names=("N2", "H2", "NH3", "AR")):
+    """gri30's NASA-7 rows of ``names`` declared at a standard state of 1 bar (invented data file:
+    the coefficients stay, their reference pressure moves, so the equilibrium constant changes)."""
+    import cantera as ct
+
+    species = []
+    for sp in ct.Species.list_from_file("gri30.yaml"):
+        if sp.name in names:
+            data = dict(sp.input_data)
+            thermo = dict(data["thermo"])
+            thermo["reference-pressure"] = 1.0e5
+            data["thermo"] = thermo
+            data.pop("transport", None)
+            species.append(data)
+    path = folder / "one_bar.yaml"
+    path.write_text(json.dumps({"species": species}))
+    return path
+
+
+def _ammonia_case(species_file):
+    return f'''title = "Ammonia synthesis run to equilibrium, 1-bar species data (invented rate)"
+
+[thermo]
+species_file = "{species_file.name}"
+
+[[reactions]]
+equation = "N2 + 3 H2 <=> 2 NH3"
+pre_exponential = "1e-9 mol/(m^3*s) / (mol/m^3)^4"
+activation_energy = "1 kJ/mol"
+orders = {{ N2 = 1, H2 = 3 }}
+
+[feed]
+temperature = "700 K"
+pressure = "50 bar"
+molar_flow = "1 mol/s"
+mole_fractions = {{ N2 = 0.25, H2 = 0.75 }}
+
+[tube]
+length = "5 m"
+inner_diameter = "50 mm"
+count = 1
+
+[heat]
+mode = "isothermal"
+
+[design]
+key_species = "N2"
+'''
+
+
+@pytest.mark.published("cantera", "equilibrate('TP') on the same 1-bar species file")
+def test_equilibrium_uses_the_reference_pressure_of_the_species_file(tmp_path):
+    """N2 + 3 H2 <=> 2 NH3 at 700 K and 50 bar with data declared at 1 bar: the outlet of a long
+    isothermal tube equals Cantera's Gibbs minimisation on the same file. Tolerance 1e-4 in y_NH3:
+    the rate is fast enough for the outlet to sit on equilibrium to ~1e-8; taking the data as
+    1 atm (the defect) gives K off by 1.01325^2 and y_NH3 0.11708 instead of 0.11830."""
+    import cantera as ct
+
+    path = _one_bar_species_file(tmp_path)
+    case_path = tmp_path / "nh3.toml"
+    case_path.write_text(_ammonia_case(path))
+    result = simulate(load_case(case_path))
+    assert result.status == "completed"
+    y = dict(zip(result.species, result.mole_fractions[-1]))
+
+    species = [sp for sp in ct.Species.list_from_file(str(path)) if sp.name in ("N2", "H2", "NH3")]
+    gas = ct.Solution(thermo="ideal-gas", species=species)
+    gas.TPX = 700.0, 50e5, "N2:0.25, H2:0.75"
+    gas.equilibrate("TP")
+    assert y["NH3"] == pytest.approx(gas["NH3"].X[0], abs=1e-4)
+    assert abs(y["NH3"] - 0.11708) > 5e-4       # not the 1-atm answer
+
+
+def test_one_bar_rows_are_moved_to_the_kernel_standard_state(tmp_path):
+    """invariant: s°(1 atm) = s°(1 bar) - R ln(1.01325) for every species of a 1-bar file."""
+    import cantera as ct
+
+    from simulator.thermo.nasa7 import s_R
+    from simulator.thermo.species_data import species_in_file, to_standard_pressure
+
+    path = _one_bar_species_file(tmp_path)
+    sp = species_in_file(str(path))["NH3"]
+    row = to_standard_pressure(np.asarray(sp.thermo.coeffs), sp.thermo.reference_pressure)
+    for T in (500.0, 700.0, 1200.0):
+        expected = sp.thermo.s(T) / ct.gas_constant - np.log(101325.0 / 1e5)
+        assert s_R(row, T) == pytest.approx(expected, rel=1e-12)
