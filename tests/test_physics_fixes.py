@@ -98,3 +98,23 @@ def test_one_bar_rows_are_moved_to_the_kernel_standard_state(tmp_path):
     for T in (500.0, 700.0, 1200.0):
         expected = sp.thermo.s(T) / ct.gas_constant - np.log(101325.0 / 1e5)
         assert s_R(row, T) == pytest.approx(expected, rel=1e-12)
+
+
+def test_constant_moles_variant_gives_peng_robinson_true_mole_fractions(cases_dir):
+    """invariant: the assumption check's constant-moles variant divides the flows by the feed's total
+    for the concentrations only; the Peng-Robinson mixing rules (Z, ln phi) still see mole fractions
+    that sum to 1. Before the fix they saw F_i / F_T,0 (sum 0.68 at the methanol demo's outlet)."""
+    from simulator.model import kernel as K
+    from simulator.model.build import build_model
+
+    case = load_case(cases_dir / "methanol_synthesis_real_gas.toml")
+    model = build_model(case, constant_moles=True)
+    ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit = model.args
+    F0, T, P = model.y0[:model.n], model.y0[model.n], model.y0[model.n + 1]
+    xi = 0.3 * F0[model.key_index]            # a third of the mole change along the demo's tube
+    F = F0 + nu[:, 0] * xi
+    assert F.sum() / F0.sum() < 0.9
+    rates = np.empty(nu.shape[1])
+    Z_used = K.reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, rates)
+    Z_true = K.pr_departure(T, P, F / F.sum(), crit)[0]
+    assert Z_used == pytest.approx(Z_true, rel=1e-12)

@@ -237,12 +237,15 @@ def _power(a, e):
 
 
 @njit(cache=True)
-def _ln_fugacity_correction(j, T, P, F, inv, act_is_p, ip, nu, crit):
+def _ln_fugacity_correction(j, T, P, F, act_is_p, ip, nu, crit):
     """sum_i nu_ij ln(phi_i) (+ dn ln Z for concentration activities) at the current state, [-]."""
     n = ip[I_N]
     x = np.empty(n)
+    Ft = 0.0
     for i in range(n):
-        x[i] = max(F[i], 0.0) * inv
+        Ft += max(F[i], 0.0)
+    for i in range(n):   # the mixing rules need true mole fractions (also when inv = 1/F_T,0, I_FROZEN)
+        x[i] = max(F[i], 0.0) / Ft
     lnphi = np.empty(n)
     Z = pr_ln_fugacity_coefficients(T, P, x, crit, lnphi)
     total = 0.0
@@ -262,15 +265,15 @@ def _mixture(T, P, F, ip, fp, crit):
     Ft = 0.0
     for i in range(n):
         Ft += max(F[i], 0.0)
-    if ip[I_FROZEN] == 1:  # assumption check: concentrations as if the total moles did not change
-        Ft = fp[F_FT0]
     inv = 1.0 / Ft
     Z = 1.0
-    if ip[I_EOS] == EOS_PR:
+    if ip[I_EOS] == EOS_PR:   # Z of the true composition (normalised mole fractions), also when frozen
         x = np.empty(n)
         for i in range(n):
             x[i] = max(F[i], 0.0) * inv
         Z = pr_departure(T, P, x, crit)[0]
+    if ip[I_FROZEN] == 1:  # assumption check: concentrations as if the total moles did not change
+        inv = 1.0 / fp[F_FT0]
     return inv, P / (Z * R * T), Z
 
 
@@ -306,7 +309,7 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit
         if ip[I_EOS] == EOS_PR:
             # real gas: equilibrium in fugacities, f_i = phi_i y_i P; with concentration activities
             # y_i P/(Z R T) the quotient also carries Z^dn. Q_f/K0 = Q_a/K_a * prod(phi^nu) * (Z^dn)
-            lnK -= _ln_fugacity_correction(j, T, P, F, inv, act_is_p, ip, nu, crit)
+            lnK -= _ln_fugacity_correction(j, T, P, F, act_is_p, ip, nu, crit)
         rev = k * math.exp(-lnK)
         for i in range(n):
             e = rexp[i, j]
