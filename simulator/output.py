@@ -44,13 +44,17 @@ def print_summary(result, stream=None):
               "  no results: the integration did not reach the end of the tube", file=stream)
         return
     o, h, d = s["outlet"], s["hot_spot"], s["design"]
+    if result.case.heat.mode == "isothermal":
+        hot = f"  hot spot          none: isothermal tube at {h['temperature_K']:.2f} K"
+    else:
+        hot = (f"  hot spot          {h['temperature_K']:.2f} K at z = {h['position_m']:.4g} m "
+               f"({h['rise_above_feed_K']:+.2f} K above feed; {h['located_by']})")
     lines = [
         f"{s['title']}",
         f"  status            {s['status']}: {s['termination']}",
         f"  outlet            X({s['key_species']}) = {o['conversion']:.4f}   T = {o['temperature_K']:.2f} K"
         f"   P = {o['pressure_Pa'] / 1e5:.4f} bar   (z = {o['position_m']:.4g} m)",
-        f"  hot spot          {h['temperature_K']:.2f} K at z = {h['position_m']:.4g} m "
-        f"({h['rise_above_feed_K']:+.2f} K above feed; {h['located_by']})",
+        hot,
     ]
     if d["target_conversion"] is not None:
         if d["reached"]:

@@ -63,9 +63,13 @@ class Result:
 
     @property
     def conversion(self):
-        """Conversion of the key species along the tube, [-]."""
+        """Conversion of the key species along the tube, at most 1, [-].
+
+        A flow that the solver leaves slightly negative, within its absolute tolerance
+        (beyond it the run fails), would give X a little above 1: it is reported as 1.
+        """
         F0 = self.F[0, self.key_index]
-        return (F0 - self.F[:, self.key_index]) / F0
+        return np.minimum((F0 - self.F[:, self.key_index]) / F0, 1.0)
 
     @property
     def mole_fractions(self):

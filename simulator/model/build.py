@@ -119,7 +119,8 @@ def build_model(case, species=None, constant_moles=False):
                             "(critical_temperature, critical_pressure, acentric_factor).")
 
     heat = case.heat
-    fp = np.zeros(K.N_FP)
+    fp = np.zeros(K.N_FP + n)
+    fp[K.F_DEPLETION:K.F_DEPLETION + n] = np.maximum(K.DEPLETION_OF_FEED * F0, K.DEPLETION_FLOOR * F0.sum())
     fp[K.F_AREA] = area
     fp[K.F_DIAM] = tube.inner_diameter
     fp[K.F_U] = heat.overall_coefficient

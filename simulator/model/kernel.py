@@ -49,6 +49,10 @@ EOS_IDEAL, EOS_PR = range(2)
 (F_AREA, F_DIAM, F_U, F_TC, F_MCP, F_RHOB, F_EPS, F_DP, F_MU0, F_MUEXP, F_MUT0, F_ROUGH, F_G,
  F_PMIN, F_T0, F_P0, F_FT0) = range(17)
 N_FP = 17
+# per-species tail of fp: fp[N_FP + i] = depletion amount delta_i of species i [mol/s] (see _depletion)
+F_DEPLETION = N_FP
+#: depletion amount of a species relative to its own feed, and the floor relative to the total feed, [-]
+DEPLETION_OF_FEED, DEPLETION_FLOOR = 1e-6, 1e-9
 # reaction columns rx[j, ...]
 X_A, X_B, X_E, X_ACT, X_BASIS, X_REV, X_DN, X_NDEN, X_NADS = range(9)
 N_RX = 9
@@ -236,6 +240,29 @@ def _power(a, e):
     return a ** e
 
 
+@njit(cache=True, inline="always")
+def _depletion(F, delta):
+    r"""Smooth switch-off of a rate that does not vanish with its reactant, [-].
+
+    A reactant of order below 1 (zero, fractional, negative) would keep being consumed after
+    it is gone (a zero-order rate does not depend on it at all). The forward rate is
+    multiplied, for each such reactant, by
+
+    .. math:: s(u) = u^2 (3 - 2u) \quad (0 < u < 1),\qquad s = 1\ (u \ge 1),\qquad s = 0\ (u \le 0)
+
+    with u = F_i / delta_i: a smoothstep, continuous with its first derivative, so the stiff
+    integrator sees no corner. delta_i = max(1e-6 F_i,feed, 1e-9 F_T,feed) per tube
+    (:data:`DEPLETION_OF_FEED`, :data:`DEPLETION_FLOOR`): above it the rate is the stated
+    law exactly; the switch-off is common practice, no source.
+    """
+    if F >= delta:
+        return 1.0
+    if F <= 0.0:
+        return 0.0
+    u = F / delta
+    return u * u * (3.0 - 2.0 * u)
+
+
 @njit(cache=True)
 def _ln_fugacity_correction(j, T, P, F, act_is_p, ip, nu, crit):
     """sum_i nu_ij ln(phi_i) (+ dn ln Z for concentration activities) at the current state, [-]."""
@@ -278,7 +305,7 @@ def _mixture(T, P, F, ip, fp, crit):
 
 
 @njit(cache=True, inline="always")
-def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit):
+def reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit):
     """Rate of reaction j per unit reactor volume, [mol/(m^3*s)].
 
     Activities are y_i P (partial pressure, [Pa]) or y_i P/(Z R T) (concentration,
@@ -296,6 +323,8 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit
         o = ordr[i, j]
         if o != 0.0:
             fwd *= _power(max(F[i], 0.0) * scale, o)
+        if o < 1.0 and nu[i, j] < 0.0:   # a rate that would not vanish with this reactant
+            fwd *= _depletion(F[i], fp[F_DEPLETION + i])
     r = fwd
     if rx[j, X_REV] > 0.5:
         dG_RT = 0.0
@@ -315,6 +344,8 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit
             e = rexp[i, j]
             if e != 0.0:
                 rev *= _power(max(F[i], 0.0) * scale, e)
+            if e < 1.0 and nu[i, j] > 0.0:   # the reverse rate consumes the products
+                rev *= _depletion(F[i], fp[F_DEPLETION + i])
         r = fwd - rev
     nads = int(rx[j, X_NADS])
     if nads > 0:
@@ -340,7 +371,7 @@ def reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, out):
     """
     inv, ctot, Z = _mixture(T, P, F, ip, fp, crit)
     for j in range(ip[I_M]):
-        out[j] = reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit)
+        out[j] = reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit)
     return Z
 
 
@@ -364,7 +395,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
     for i in range(n):
         dydz[i] = 0.0
     for j in range(m):
-        r = area * reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit)
+        r = area * reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit)
         for i in range(n):
             v = nu[i, j]
             if v != 0.0:
@@ -506,6 +537,79 @@ def compressibility_profile(T, P, F, crit):
         for i in range(n):
             x[i] = max(F[k, i], 0.0) / Ft
         out[k] = pr_departure(T[k], P[k], x, crit)[0]
+    return out
+
+
+@njit(cache=True)
+def pr_phase_profile(T, P, F, crit):
+    r"""Peng-Robinson roots along a profile, to tell a gas from a liquid-like state.
+
+    Parameters
+    ----------
+    T : ndarray
+        Temperatures, [K]
+    P : ndarray
+        Pressures, [Pa]
+    F : ndarray
+        (N, n) molar flows of the species in ``crit``, [mol/s]
+    crit : ndarray
+        (n, 3) rows of critical temperature [K], critical pressure [Pa], acentric factor [-]
+
+    Returns
+    -------
+    out : ndarray
+        (N, 4): Z of the root the balances use (largest real root), Z of the smallest real
+        root above B (equal to the first when the cubic has one real root), the mixture's
+        ln(f/P) = sum_i x_i ln(phi_i) at the largest and at the smallest root, [-]
+
+    Notes
+    -----
+    .. math:: \frac{g^{dep}}{RT} = Z - 1 - \ln(Z - B) - \frac{A}{2\sqrt2 B}
+              \ln\frac{Z + (1+\sqrt2) B}{Z + (1-\sqrt2) B}
+
+    The other roots come from the quadratic left after dividing the largest one out.
+    A smaller root with a lower g^dep is a liquid at the same composition that is more stable
+    than the gas: the gas would condense, which the model (one gas phase) does not describe.
+    """
+    N = T.shape[0]
+    n = F.shape[1]
+    out = np.empty((N, 4))
+    x = np.empty(n)
+    ai = np.empty(n)
+    bi = np.empty(n)
+    s2 = math.sqrt(2.0)
+    for k in range(N):
+        Ft = 0.0
+        for i in range(n):
+            Ft += max(F[k, i], 0.0)
+        am = 0.0
+        bm = 0.0
+        for i in range(n):
+            x[i] = max(F[k, i], 0.0) / Ft
+            ai[i], _, bi[i] = _pr_pure(T[k], crit[i, 0], crit[i, 1], crit[i, 2])
+            bm += x[i] * bi[i]
+        for i in range(n):
+            for j in range(n):
+                am += x[i] * x[j] * math.sqrt(ai[i] * ai[j])
+        A = am * P[k] / (R * T[k]) ** 2
+        B = bm * P[k] / (R * T[k])
+        Z1 = pr_departure(T[k], P[k], x, crit)[0]
+        c2 = -(1.0 - B)
+        c1 = A - 3.0 * B * B - 2.0 * B
+        p = c2 + Z1                  # Z^2 + p Z + q = 0 after dividing out (Z - Z1)
+        q = c1 + p * Z1
+        Z2 = Z1
+        disc = p * p - 4.0 * q
+        if disc > 0.0:
+            small = (-p - math.sqrt(disc)) / 2.0
+            if small > B:
+                Z2 = small
+        out[k, 0] = Z1
+        out[k, 1] = Z2
+        for c in range(2):
+            Z = out[k, c]
+            out[k, 2 + c] = (Z - 1.0 - math.log(Z - B) - A / (2.0 * s2 * B)
+                             * math.log((Z + (1.0 + s2) * B) / (Z + (1.0 - s2) * B)))
     return out
 
 
