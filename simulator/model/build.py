@@ -12,7 +12,7 @@ from simulator.errors import CaseError, ThermoError
 from simulator.model import kernel as K
 from simulator.model.adiabatic import adiabatic_rise
 from simulator.thermo.critical import critical_constants
-from simulator.thermo.species_data import SpeciesData, build_species_data, mixture_viscosity
+from simulator.thermo.species_data import SpeciesData, build_species_data, mixture_viscosity, viscosity_fits
 from simulator.units import R
 
 HEAT_CODES = {("isothermal", ""): K.HEAT_ISOTHERMAL, ("adiabatic", ""): K.HEAT_ADIABATIC,
@@ -119,8 +119,7 @@ def build_model(case, species=None, constant_moles=False):
                             "(critical_temperature, critical_pressure, acentric_factor).")
 
     heat = case.heat
-    fp = np.zeros(K.N_FP + n)
-    fp[K.F_DEPLETION:K.F_DEPLETION + n] = np.maximum(K.DEPLETION_OF_FEED * F0, K.DEPLETION_FLOOR * F0.sum())
+    fp = np.zeros(K.N_FP + 5 * n + 2 * n * n)       # fixed entries, then the per-species tail
     fp[K.F_AREA] = area
     fp[K.F_DIAM] = tube.inner_diameter
     fp[K.F_U] = heat.overall_coefficient
@@ -140,7 +139,7 @@ def build_model(case, species=None, constant_moles=False):
     fp[K.F_MUT0] = case.feed.temperature
     fp[K.F_MU0] = 1.0
     if case.pressure_drop.model != "none":
-        fp[K.F_MU0], fp[K.F_MUEXP], note = _viscosity_law(case, species, x0)
+        note = _viscosity_law(case, species, fp, x0)
 
     ip = np.array([n, m, HEAT_CODES[heat.mode, heat.arrangement], DP_CODES[case.pressure_drop.model],
                    FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax,
@@ -159,16 +158,33 @@ def build_model(case, species=None, constant_moles=False):
                  adiabatic=adiabatic_rise(F0, case.feed.temperature, nu, key, args[2]))
 
 
-def _viscosity_law(case, species, x0):
-    """(mu0 [Pa*s], exponent [-], note) of mu = mu0 (T/T_feed)^a."""
+def _viscosity_law(case, species, fp, x0):
+    """Fill the viscosity entries of ``fp`` (see :func:`simulator.model.kernel.viscosity`); returns the note.
+
+    A viscosity given in the case is used as a constant. Otherwise the viscosity follows the
+    local temperature and composition: Cantera's pure-species fits of its transport data,
+    combined by Wilke's rule in the kernel (the mixture-averaged rule of Cantera itself).
+    ``F_MU0`` and ``F_MUEXP`` then hold the feed gas's law mu0 (T/T_feed)^a for reference (the
+    note, and sweeps that map parameters as this function does); the kernel does not use them.
+    """
     if not np.isnan(case.pressure_drop.viscosity):
-        return case.pressure_drop.viscosity, 0.0, "given in the case (constant)"
+        fp[K.F_MUMODE] = K.VISCOSITY_CONSTANT
+        fp[K.F_MU0], fp[K.F_MUEXP] = case.pressure_drop.viscosity, 0.0
+        return "given in the case (constant)"
     T0, P0 = case.feed.temperature, case.feed.pressure
     try:
+        fits = viscosity_fits(species, case.thermo)
         mu0 = mixture_viscosity(species, case.thermo, T0, P0, x0)
         mu1 = mixture_viscosity(species, case.thermo, T0 + 100.0, P0, x0)
     except ThermoError as err:
         raise CaseError(f"{case.source_path}: pressure_drop.viscosity: {err}") from err
-    exponent = float(np.log(mu1 / mu0) / np.log((T0 + 100.0) / T0))
-    return mu0, exponent, (f"Cantera mixture-averaged transport at the feed composition: "
-                           f"{mu0:.4g} Pa*s at {T0:.1f} K, scaled as (T/T_feed)^{exponent:.3f}")
+    n = len(species.names)
+    M = species.molar_mass
+    base = K.F_VISC
+    fp[K.F_MUMODE] = K.VISCOSITY_WILKE
+    fp[K.F_MU0], fp[K.F_MUEXP] = mu0, float(np.log(mu1 / mu0) / np.log((T0 + 100.0) / T0))
+    fp[base:base + 5 * n] = fits.ravel()
+    fp[base + 5 * n:base + 5 * n + n * n] = ((M[None, :] / M[:, None]) ** 0.25).ravel()
+    fp[base + 5 * n + n * n:base + 5 * n + 2 * n * n] = (1.0 / np.sqrt(8.0 * (1.0 + M[:, None] / M[None, :]))).ravel()
+    return (f"local temperature and composition: pure-species viscosities from Cantera's transport data "
+            f"(its fits in ln T) combined by Wilke's rule (Wilke 1950); {mu0:.4g} Pa*s for the feed at {T0:.1f} K")

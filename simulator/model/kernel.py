@@ -47,12 +47,17 @@ DP_NONE, DP_ERGUN, DP_PIPE = range(3)
 EOS_IDEAL, EOS_PR = range(2)
 # float parameters fp[...]
 (F_AREA, F_DIAM, F_U, F_TC, F_MCP, F_RHOB, F_EPS, F_DP, F_MU0, F_MUEXP, F_MUT0, F_ROUGH, F_G,
- F_PMIN, F_T0, F_P0, F_FT0) = range(17)
-N_FP = 17
-# per-species tail of fp: fp[N_FP + i] = depletion amount delta_i of species i [mol/s] (see _depletion)
-F_DEPLETION = N_FP
-#: depletion amount of a species relative to its own feed, and the floor relative to the total feed, [-]
-DEPLETION_OF_FEED, DEPLETION_FLOOR = 1e-6, 1e-9
+ F_PMIN, F_T0, F_P0, F_FT0, F_MUMODE) = range(18)
+N_FP = 18
+# per-species tail of fp (n species; independent of the feed, so a sweep may copy it), see build.py:
+#   fp[F_VISC + 5 i + c]               viscosity fit of species i (Cantera's form, see viscosity)
+#   fp[F_VISC + 5 n + n i + k]         (M_k / M_i)^(1/4)                          (Wilke)
+#   fp[F_VISC + 5 n + n^2 + n i + k]   1 / sqrt(8 (1 + M_i / M_k))                (Wilke)
+F_VISC = N_FP
+VISCOSITY_CONSTANT, VISCOSITY_WILKE = 0, 1
+#: amount below which a rate that does not vanish with its reactant is switched off, relative to
+#: the total feed flow per tube, [-] (see _depletion)
+DEPLETION_FRACTION = 1e-9
 # reaction columns rx[j, ...]
 X_A, X_B, X_E, X_ACT, X_BASIS, X_REV, X_DN, X_NDEN, X_NADS = range(9)
 N_RX = 9
@@ -251,9 +256,9 @@ def _depletion(F, delta):
     .. math:: s(u) = u^2 (3 - 2u) \quad (0 < u < 1),\qquad s = 1\ (u \ge 1),\qquad s = 0\ (u \le 0)
 
     with u = F_i / delta_i: a smoothstep, continuous with its first derivative, so the stiff
-    integrator sees no corner. delta_i = max(1e-6 F_i,feed, 1e-9 F_T,feed) per tube
-    (:data:`DEPLETION_OF_FEED`, :data:`DEPLETION_FLOOR`): above it the rate is the stated
-    law exactly; the switch-off is common practice, no source.
+    integrator sees no corner. delta = 1e-9 F_T,feed per tube (:data:`DEPLETION_FRACTION`, ten
+    times the default absolute tolerance of a flow): above it the rate is the stated law
+    exactly; the switch-off is common practice, no source.
     """
     if F >= delta:
         return 1.0
@@ -324,7 +329,7 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, 
         if o != 0.0:
             fwd *= _power(max(F[i], 0.0) * scale, o)
         if o < 1.0 and nu[i, j] < 0.0:   # a rate that would not vanish with this reactant
-            fwd *= _depletion(F[i], fp[F_DEPLETION + i])
+            fwd *= _depletion(F[i], DEPLETION_FRACTION * fp[F_FT0])
     r = fwd
     if rx[j, X_REV] > 0.5:
         dG_RT = 0.0
@@ -345,7 +350,7 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, 
             if e != 0.0:
                 rev *= _power(max(F[i], 0.0) * scale, e)
             if e < 1.0 and nu[i, j] > 0.0:   # the reverse rate consumes the products
-                rev *= _depletion(F[i], fp[F_DEPLETION + i])
+                rev *= _depletion(F[i], DEPLETION_FRACTION * fp[F_FT0])
         r = fwd - rev
     nads = int(rx[j, X_NADS])
     if nads > 0:
@@ -376,9 +381,69 @@ def reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, out):
 
 
 @njit(cache=True)
-def viscosity(T, fp):
-    """Gas viscosity mu0 (T/T0)^a, [Pa*s]."""
-    return fp[F_MU0] * (T / fp[F_MUT0]) ** fp[F_MUEXP]
+def viscosity(T, F, fp):
+    r"""Gas viscosity at the local temperature and composition, [Pa*s].
+
+    Parameters
+    ----------
+    T : float
+        Temperature, [K]
+    F : ndarray
+        Molar flows, [mol/s]
+    fp : ndarray
+        Float parameters with the tail laid out in the module header, [-]
+
+    Returns
+    -------
+    mu : float
+        Dynamic viscosity, [Pa*s]
+
+    Notes
+    -----
+    ``fp[F_MUMODE] == VISCOSITY_CONSTANT``: mu0 (T/T0)^a (a given constant has a = 0).
+    ``VISCOSITY_WILKE``: pure-species viscosities from the fits Cantera makes of its transport
+    data, :math:`\mu_i = \sqrt{T}\,(\sum_c a_{ic} (\ln T)^c)^2`, combined with Wilke's rule [1]_
+
+    .. math:: \mu = \sum_i \frac{x_i \mu_i}{\sum_k x_k \Phi_{ik}}, \qquad
+              \Phi_{ik} = \frac{\left(1 + \sqrt{\mu_i/\mu_k}\,(M_k/M_i)^{1/4}\right)^2}
+                               {\sqrt{8 (1 + M_i/M_k)}}
+
+    which is the mixture rule of Cantera's mixture-averaged transport, so both agree.
+
+    References
+    ----------
+    .. [1] C.R. Wilke, "A viscosity equation for gas mixtures," J. Chem. Phys., vol. 18,
+       pp. 517-519, 1950.
+    """
+    if fp[F_MUMODE] != VISCOSITY_WILKE:
+        return fp[F_MU0] * (T / fp[F_MUT0]) ** fp[F_MUEXP]
+    n = F.shape[0]
+    fits = F_VISC
+    w_mass = fits + 5 * n
+    w_den = w_mass + n * n
+    lnT = math.log(T)
+    sqT = math.sqrt(T)
+    Ft = 0.0
+    for i in range(n):
+        Ft += max(F[i], 0.0)
+    root = np.empty(n)          # sqrt(mu_i) / T^(1/4)
+    for i in range(n):
+        o = fits + 5 * i
+        root[i] = fp[o] + lnT * (fp[o + 1] + lnT * (fp[o + 2] + lnT * (fp[o + 3] + lnT * fp[o + 4])))
+    mu = 0.0
+    for i in range(n):
+        xi = max(F[i], 0.0) / Ft
+        if xi == 0.0:
+            continue
+        den = 0.0
+        for k in range(n):
+            xk = max(F[k], 0.0) / Ft
+            if xk == 0.0:
+                continue
+            t = 1.0 + root[i] / root[k] * fp[w_mass + n * i + k]
+            den += xk * t * t * fp[w_den + n * i + k]
+        mu += xi * root[i] * root[i] * sqT / den
+    return mu
 
 
 @njit(cache=True)
@@ -416,7 +481,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             mass += Fi * mw[i]
         rho = P * (mass / Ft) / (Z * R * T)
         G = fp[F_G]
-        mu = viscosity(T, fp)
+        mu = viscosity(T, F, fp)
         if ip[I_DP] == DP_ERGUN:
             eps = fp[F_EPS]
             dp = fp[F_DP]

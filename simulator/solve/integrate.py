@@ -28,9 +28,11 @@ import numpy as np
 from scipy.integrate import ODEintWarning, odeint
 from scipy.optimize import brentq
 
+from simulator.model import kernel as model_kernel
 from simulator.model import kernels
 from simulator.model.build import build_model
 from simulator.results import Result
+from simulator.units import R as R_GAS
 from simulator.solve.checks import (closure, closure_failure, closure_warnings, compressibility_profile,
                                     phase_failure, range_warnings)
 
@@ -677,6 +679,45 @@ def _hot_spot_near_inlet(case, hot):
             "its hot-spot temperature is indicative only"]
 
 
+#: share of the pressure drop above which the neglected acceleration term is flagged, [-]
+ACCELERATION_SHARE = 0.03
+
+
+def acceleration_pressure_drop(model, ys):
+    """Pressure drop the neglected acceleration term would add, G^2 (1/rho_out - 1/rho_in), [Pa].
+
+    The momentum balance integrated is dP/dz = -(friction); the full one has
+    -d(G^2/rho)/dz besides, with G the (constant) mass velocity. Its integral over the tube is
+    G^2 (1/rho_out - 1/rho_in), positive when the gas expands (heating, mole increase, pressure loss).
+    """
+    n = model.n
+    G = model.args[1][model_kernel.F_G]
+    crit = model.args[9]
+
+    def specific_volume(y):
+        F = np.clip(y[:n], 0.0, None)
+        Z = 1.0
+        if model.case.thermo.equation_of_state == "peng-robinson":
+            Z = model_kernel.pr_departure(y[n], y[n + 1], F / F.sum(), crit)[0]
+        return Z * R_GAS * y[n] * F.sum() / (y[n + 1] * float(F @ model.species.molar_mass))
+
+    return G * G * (specific_volume(ys[-1]) - specific_volume(ys[0]))
+
+
+def _acceleration_warning(model, ys):
+    """Warning when the neglected acceleration term exceeds ACCELERATION_SHARE of the pressure drop."""
+    if model.case.pressure_drop.model == "none" or len(ys) < 2:
+        return []
+    n = model.n
+    friction = ys[0, n + 1] - ys[-1, n + 1]
+    accel = acceleration_pressure_drop(model, ys)
+    if not (friction > 0 and abs(accel) > ACCELERATION_SHARE * friction):
+        return []
+    return [f"the acceleration term of the momentum balance (G^2 change of 1/rho, {accel:.3g} Pa) is "
+            f"{100 * accel / friction:.0f} % of the computed pressure drop ({friction:.3g} Pa) and is neglected: "
+            "the pressure drop is underestimated by about that much"]
+
+
 def model_warnings(model, ys, zs, hot=None):
     """Warnings about the physics of this run (not about the data ranges)."""
     hot = hot or {}
@@ -690,6 +731,7 @@ def model_warnings(model, ys, zs, hot=None):
                    f"conversion is resolved only to about {resolution:.1g} (the solver's absolute tolerance); "
                    "choose a main reactant as design.key_species or tighten [solver] atol_scale")
     out += _hot_spot_near_inlet(model.case, hot)
+    out += _acceleration_warning(model, ys)
     if model.case.pressure_drop.model != "none":
         dp = ys[0, n + 1] - ys[-1, n + 1]
         if dp > 0.3 * ys[0, n + 1]:
@@ -707,6 +749,8 @@ def references_used(case, model, compressibility_computed=False):
         keys.append("mcbride2002")
     if any(r.form == "hougen-watson" for r in case.reactions):
         keys.append("hougen_watson1947")
+    if case.pressure_drop.model != "none" and math.isnan(case.pressure_drop.viscosity):
+        keys.append("wilke1950")
     if case.pressure_drop.model == "ergun":
         keys.append("ergun1952")
     elif case.pressure_drop.model == "pipe-friction":

@@ -9,6 +9,7 @@ Cantera works in kmol; this module converts to mol and nothing else sees kmol.
 """
 import difflib
 import functools
+import threading
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -81,8 +82,22 @@ def species_in_file(path):
     try:
         return {sp.name: sp for sp in ct.Species.list_from_file(path)}
     except ct.CanteraError as err:
-        first = str(err).strip().splitlines()
-        raise ThermoError(f"cannot read species from {path}: {first[-1] if first else err}") from err
+        raise ThermoError(f"cannot read species from {path}: {cantera_message(err)}") from err
+
+
+def cantera_message(err):
+    """The first meaningful line of a Cantera error (not its rows of asterisks or the thrower's name).
+
+    Examples
+    --------
+    >>> cantera_message(RuntimeError("\\n****\\nCanteraError thrown by X:\\nMissing data for 'H2'.\\n****\\n"))
+    "Missing data for 'H2'."
+    """
+    for line in str(err).splitlines():
+        text = line.strip()
+        if text and text.strip("*") and not text.startswith("CanteraError thrown by"):
+            return text
+    return type(err).__name__
 
 
 def near(name, choices, n=5):
@@ -230,12 +245,63 @@ def cantera_solution(species, thermo, transport=False):
     try:
         return ct.Solution(yaml="\n".join(lines) + "\n")
     except ct.CanteraError as err:
-        last = str(err).strip().splitlines()
-        raise ThermoError(f"Cantera could not build the species set: {last[-1] if last else err}") from err
+        hint = ' (no transport data); give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"' if transport else ""
+        raise ThermoError(f"Cantera could not build the species set: {cantera_message(err)}{hint}") from err
 
 
 def _quote(text):
     return '"' + text.replace("\\", "\\\\").replace('"', '\\"') + '"'
+
+
+def viscosity_fits(species, thermo):
+    """Cantera's pure-species viscosity fits of the model's species, (n, 5), [-].
+
+    Row i holds a_i0..a_i4 of mu_i = sqrt(T) (sum_c a_ic (ln T)^c)^2 [Pa*s] (Cantera's
+    ``get_viscosity_polynomial``, fitted to its kinetic-theory viscosities). The Cantera
+    transport object is built once per species set and file (cached).
+
+    Raises ThermoError when a species has no transport data (custom species never do).
+    """
+    missing = [n for n in species.names if n in {c.name for c in thermo.custom}]
+    if missing:
+        raise ThermoError(f"no transport data for custom species {', '.join(missing)}; "
+                          'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"')
+    key = (species.species_path, tuple(species.names))
+    if key not in _VISCOSITY_FITS:
+        import cantera as ct
+
+        gas = _transport_solution(species, thermo)
+        try:
+            rows = [np.asarray(gas.get_viscosity_polynomial(gas.species_index(n)), dtype=float)
+                    for n in species.names]
+        except ct.CanteraError as err:
+            raise ThermoError(f"viscosity from transport data failed: {cantera_message(err)}; "
+                              'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"') from err
+        if any(len(r) != 5 for r in rows):
+            raise ThermoError("Cantera's viscosity fits are not of degree 4; give pressure_drop.viscosity")
+        if len(_VISCOSITY_FITS) > 32:
+            _VISCOSITY_FITS.clear()
+        _VISCOSITY_FITS[key] = np.array(rows)
+    return _VISCOSITY_FITS[key].copy()
+
+
+_VISCOSITY_FITS = {}
+_TRANSPORT = {}
+_TRANSPORT_LOCK = threading.Lock()
+
+
+def _transport_solution(species, thermo):
+    """A mixture-averaged transport Solution of the model's species, built once per species set.
+
+    Only for species sets without custom species (those have no transport data), so the key
+    (file, names) identifies it.
+    """
+    key = (species.species_path, tuple(species.names))
+    if key not in _TRANSPORT:
+        if len(_TRANSPORT) > 32:
+            _TRANSPORT.clear()
+        _TRANSPORT[key] = cantera_solution(species, thermo, transport=True)
+    return _TRANSPORT[key]
 
 
 def mixture_viscosity(species, thermo, temperature, pressure, mole_fractions):
@@ -250,11 +316,11 @@ def mixture_viscosity(species, thermo, temperature, pressure, mole_fractions):
         raise ThermoError(f"no transport data for custom species {', '.join(missing)}; "
                           'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"')
     try:
-        gas = cantera_solution(species, thermo, transport=True)
-        gas.TPX = temperature, pressure, np.clip(mole_fractions, 0.0, None)
-        return float(gas.viscosity)
+        with _TRANSPORT_LOCK:          # one shared Cantera object per species set: set and read together
+            gas = _transport_solution(species, thermo)
+            gas.TPX = temperature, pressure, np.clip(mole_fractions, 0.0, None)
+            return float(gas.viscosity)
     except ct.CanteraError as err:
-        last = str(err).strip().splitlines()
-        raise ThermoError(f"viscosity from transport data failed: {last[-1] if last else err}; "
+        raise ThermoError(f"viscosity from transport data failed: {cantera_message(err)}; "
                           'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"') from err
 
