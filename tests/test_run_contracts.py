@@ -193,3 +193,90 @@ def test_a_large_closure_fails_the_run():
     assert "energy balance closes only to 0.58" in closure_failure({"elements_relative": 0.0, "energy_relative": 0.58})
     assert closure_failure({"elements_relative": 1e-12, "energy_relative": 1e-7}) is None
     assert closure_failure({"elements_relative": float("nan"), "energy_relative": 0.0}) is not None
+
+
+def _small_case(**changes):
+    raw = {"title": "small", "thermo": {"species_file": "gri30.yaml"},
+           "reactions": [{"equation": "C2H4 + H2 => C2H6", "pre_exponential": "1e3 m^3/(mol*s)",
+                          "activation_energy": "40 kJ/mol"}],
+           "feed": {"temperature": "450 K", "pressure": "5 bar", "molar_flow": "1 mol/s",
+                    "mole_fractions": {"C2H4": 0.2, "H2": 0.3, "N2": 0.5}},
+           "tube": {"length": "3 m", "inner_diameter": "30 mm", "count": 1},
+           "heat": {"mode": "adiabatic"}, "pressure_drop": {"model": "pipe-friction", "viscosity": "2e-5 Pa*s"},
+           "design": {"key_species": "C2H4"}}
+    for path, value in changes.items():
+        section, key = path.split("__")
+        raw[section][key] = value
+    return raw
+
+
+@pytest.mark.parametrize("field, value, match", [
+    ("tube__inner_diameter", "1e-310 m", r"tube\.inner_diameter = 1e-310 m: its cross-section"),
+    ("tube__inner_diameter", "1e200 m", r"tube\.inner_diameter = 1e\+200 m: its cross-section"),
+    ("feed__molar_flow", "1e-310 mol/s", r"feed flow: 1e-310 mol/s per tube is too small to integrate"),
+])
+def test_extreme_magnitudes_are_refused_with_the_field_not_a_traceback(field, value, match):
+    """Before: ZeroDivisionError / OverflowError in build_model (a traceback, exit 1)."""
+    from simulator.errors import CaseError
+
+    with pytest.raises(CaseError, match=match):
+        simulate(load_case_dict(_small_case(**{field: value})))
+
+
+@pytest.mark.parametrize("field, value", [
+    ("feed__temperature", "1e-310 K"),        # before: NaN in the adiabatic-rise root finder (ValueError)
+    ("feed__temperature", "1 K"),             # before: "Re must be > 0" from a NaN state (ValueError)
+    ("tube__length", "1e200 m"),              # before: ZeroDivisionError inside odeint
+])
+def test_extreme_states_end_as_a_result_with_a_status_never_an_exception(field, value):
+    result = simulate(load_case_dict(_small_case(**{field: value})))
+    assert result.status in ("completed", "stopped", "failed")
+    import json
+
+    json.dumps(result.summary(), allow_nan=False)
+    if result.status == "failed":
+        assert "z = " in result.termination
+
+
+def test_zero_activation_energy_and_huge_rate_constant_finish_within_the_budget():
+    started = time.perf_counter()
+    for changes in ({"reactions": None},):
+        raw = _small_case()
+        raw["reactions"][0]["activation_energy"] = "-50 kJ/mol"
+        raw["reactions"][0]["pre_exponential"] = "1e30 m^3/(mol*s)"
+        result = simulate(load_case_dict(raw))
+        assert result.status in ("completed", "stopped", "failed")
+        assert result.solver_stats["steps"] <= I.RUN_STEP_BUDGET + I.POST_CEILING
+    assert time.perf_counter() - started < 15.0
+
+
+def test_missing_transport_data_gives_cantera_s_first_line_and_the_fix():
+    """Item 10: before, the message was a row of asterisks."""
+    from simulator.errors import CaseError
+
+    raw = _small_case(thermo__species_file="nasa_gas.yaml", pressure_drop__model="pipe-friction")
+    raw["pressure_drop"] = {"model": "pipe-friction"}
+    with pytest.raises(CaseError) as err:
+        simulate(load_case_dict(raw))
+    text = str(err.value)
+    assert "Missing gas-phase transport data for species" in text
+    assert "give pressure_drop.viscosity" in text and "****" not in text
+
+
+def test_acceleration_term_is_flagged_in_the_dehydrogenation_demo(cases_dir):
+    """7 % of the pressure drop in the dehydrogenation demo (expanding, heated gas); the term is
+    G^2 (1/rho_out - 1/rho_in) computed here independently from the result's profiles (ideal gas)."""
+    case = load_case(cases_dir / "dehydrogenation_heated_tube.toml")
+    model = build_model(case)
+    result = simulate(case, model=model)
+    F = result.F / model.count
+    M = model.species.molar_mass
+    v = [8.314462618 * result.T[k] * F[k].sum() / (result.P[k] * float(F[k] @ M)) for k in (0, -1)]
+    G = float(F[0] @ M) / model.area
+    accel = G * G * (v[1] - v[0])
+    assert I.acceleration_pressure_drop(model, np.column_stack([F, result.T, result.P, result.Tc, result.Q])) \
+        == pytest.approx(accel, rel=1e-6)
+    share = accel / (result.P[0] - result.P[-1])
+    assert 0.05 < share < 0.09
+    assert any("acceleration term of the momentum balance" in w and f"{100 * share:.0f} %" in w
+               for w in result.warnings)

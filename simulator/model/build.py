@@ -4,6 +4,8 @@ This is the one place that turns a validated :class:`~simulator.case.schema.Case
 into numbers per tube: feed split evenly over the tubes, mass velocity, viscosity
 law, rate-constant arrays and critical constants.
 """
+import math
+import sys
 from dataclasses import dataclass
 
 import numpy as np
@@ -82,10 +84,13 @@ def build_model(case, species=None, constant_moles=False):
     n, m = len(names), len(case.reactions)
     index = {s: i for i, s in enumerate(names)}
     tube = case.tube
-    area = np.pi * tube.inner_diameter ** 2 / 4.0
-    F_total = feed_molar_flow(case, species)
-    x0 = np.array([dict(case.feed.mole_fractions).get(s, 0.0) for s in names])
-    F0 = x0 * F_total / tube.count
+    with np.errstate(all="ignore"):     # extreme inputs give inf/0 here, refused just below
+        area = float(np.pi * np.float64(tube.inner_diameter) ** 2 / 4.0)
+        F_total = float(feed_molar_flow(case, species))
+        x0 = np.array([dict(case.feed.mole_fractions).get(s, 0.0) for s in names])
+        F0 = x0 * F_total / tube.count
+        G = float(np.float64(F0 @ species.molar_mass) / area) if area > 0 else math.inf
+    _check_magnitudes(case, area, F_total, G)
 
     nu = np.zeros((n, m))
     ordr = np.zeros((n, m))
@@ -126,7 +131,7 @@ def build_model(case, species=None, constant_moles=False):
     fp[K.F_TC] = heat.medium_temperature
     fp[K.F_MCP] = heat.medium_mass_flow * heat.medium_cp / tube.count if heat.arrangement == "co-current" else 1.0
     fp[K.F_ROUGH] = tube.roughness
-    fp[K.F_G] = float(F0 @ species.molar_mass) / area
+    fp[K.F_G] = G
     fp[K.F_PMIN] = 1e-3 * case.feed.pressure
     fp[K.F_T0] = case.feed.temperature
     fp[K.F_P0] = case.feed.pressure
@@ -156,6 +161,30 @@ def build_model(case, species=None, constant_moles=False):
                  key_index=key, count=tube.count, area=area,
                  feed_molar_flow=F_total, viscosity_note=note, critical_sources=tuple(crit_sources),
                  adiabatic=adiabatic_rise(F0, case.feed.temperature, nu, key, args[2]))
+
+
+def _check_magnitudes(case, area, F_total, G):
+    """Refuse numbers the balances cannot be written with (a CaseError naming the field).
+
+    The loader checks plausible ranges; this is the last line for cases built otherwise: a
+    cross-section, feed flow or mass velocity that underflows to zero or overflows to inf.
+    """
+    where = case.source_path
+    D = case.tube.inner_diameter
+    if not (area > 0 and math.isfinite(area)):
+        raise CaseError(f"{where}: tube.inner_diameter = {D:g} m: its cross-section ({area:g} m^2) is not a "
+                        "finite positive number; give the inner diameter of a real tube")
+    if not (F_total > 0 and math.isfinite(F_total)):
+        raise CaseError(f"{where}: feed flow: the molar flow ({F_total:g} mol/s) is not a finite positive "
+                        "number; give a feed flow of a real reactor")
+    per_tube = F_total / case.tube.count
+    if per_tube * case.solver.atol_scale < 1e6 * sys.float_info.min:
+        raise CaseError(f"{where}: feed flow: {per_tube:g} mol/s per tube is too small to integrate (its absolute "
+                        f"tolerance would be a subnormal number below {1e6 * sys.float_info.min:.3g}); give a feed "
+                        "flow of a real reactor")
+    if not (G > 0 and math.isfinite(G)):
+        raise CaseError(f"{where}: tube.inner_diameter = {D:g} m with the feed flow {F_total:g} mol/s: the mass "
+                        f"velocity ({G:g} kg/(m^2*s)) is not a finite positive number")
 
 
 def _viscosity_law(case, species, fp, x0):

@@ -53,10 +53,11 @@ def versions():
 
 
 #: Work budget of one run, in ODEPACK steps: the main integration may take at most this many
-#: steps in all (not per output interval); the post-processing (events, hot spot, fast intervals)
-#: at most POST_FACTOR times the steps the main integration took, and never fewer than POST_FLOOR.
-RUN_STEP_BUDGET = 200_000
-POST_FACTOR, POST_FLOOR = 4, 1_000
+#: steps in all (not per output interval; about 4 s at the worst observed cost of a step); the
+#: post-processing (events, hot spot, fast intervals) at most POST_FACTOR times the steps the main
+#: integration took, never fewer than POST_FLOOR and never more than POST_CEILING.
+RUN_STEP_BUDGET = 50_000
+POST_FACTOR, POST_FLOOR, POST_CEILING = 4, 1_000, 10_000
 SUCCESS = "Integration successful."
 BALANCE_ERROR = "the balances could not be evaluated"
 #: what the plain-Python kernel raises on overflow, division by zero or a log/sqrt of a negative number
@@ -193,6 +194,11 @@ def _integrate_budgeted(tube, y0, zs):
     return ys, {"message": message, "tcur": np.array(tcur), "nst": np.array(nst + [used] * (n_int - len(nst)))}
 
 
+def _post_budget(main_steps):
+    """Steps the post-processing of a run may take, [-]."""
+    return min(max(POST_FACTOR * main_steps, POST_FLOOR), POST_CEILING)
+
+
 def _budget_refusal(case, length):
     """Why the run cannot fit its step budget before it starts (solver.max_step too small), or None."""
     max_step = case.solver.max_step
@@ -314,15 +320,18 @@ def _resolve_fast_intervals(tube, zs, ys, dTdz, info, n):
         solver = LSODA(lambda z, y: K.rhs_odeint(y, z, *args), zs[k], ys[k], zs[k + 1], rtol=tube.rtol,
                        atol=tube.atol)
         points, states, budget = [], [], tube.remaining()
-        while solver.status == "running" and len(points) < budget:
-            solver.step()
-            points.append(solver.t)
-            states.append(solver.y.copy())
+        try:
+            while solver.status == "running" and len(points) < budget:
+                solver.step()
+                points.append(solver.t)
+                states.append(solver.y.copy())
+        except ARITHMETIC_ERRORS:       # the balances failed inside this interval: keep what was reached
+            solver.status = "failed"
         tube.post_budget -= len(points)
         z_in = np.array(points)
         inner = (z_in > zs[k]) & (z_in < zs[k + 1])
-        # a finished interval's step points are the solver's own trajectory; an unfinished one's
-        # (budget spent, or a failure) are kept only if they are finite (they are still solver states)
+        # a finished interval's step points are the solver's own trajectory, and so are those of one
+        # whose budget ran out (kept if finite); a failed one's are not used
         if inner.any() and solver.status != "failed":
             y_in = np.array(states)[inner]
             good = np.all(np.isfinite(y_in), axis=1)
@@ -361,6 +370,16 @@ def _limit_crossing(tube, zs, ys, dTdz, n, T_lim):
 
 
 def simulate(case, model=None, length=None):
+    """Solve the mole, energy and pressure balances along the tube (see :func:`_simulate`).
+
+    numpy's floating-point warnings are silenced inside: every non-finite number a run meets is
+    checked explicitly and turned into a failed run or a refused case with where and why.
+    """
+    with np.errstate(all="ignore"):
+        return _simulate(case, model, length)
+
+
+def _simulate(case, model=None, length=None):
     """Solve the mole, energy and pressure balances along the tube.
 
     Parameters
@@ -398,7 +417,7 @@ def simulate(case, model=None, length=None):
         zs, ys, info, ok, finite = zs[:1], model.y0[None, :].copy(), {"nst": np.zeros(0)}, True, np.ones(1, bool)
         status, termination = "failed", f"solver failed after z = 0 m of {L:.6g} m (not integrated): {refusal}"
     main_steps, main_time = tube.nsteps, time.perf_counter() - started
-    tube.post_budget = max(POST_FACTOR * main_steps, POST_FLOOR)
+    tube.post_budget = _post_budget(main_steps)
     last_good = len(zs) - 1
     if not ok or not finite.all():
         # output k (k >= 1) is valid when the solver reached zs[k] (tcur[k-1] >= zs[k]); after a failure
@@ -510,7 +529,7 @@ def simulate(case, model=None, length=None):
              "kernel": "compiled (numba)" if tube.K is kernels.compiled else "plain Python (compiled cache cold)", "rtol": opts.rtol, "atol_scale": opts.atol_scale,
              "output_points": int(len(zs)), "rhs_evaluations": tube.nfev, "jacobian_evaluations": tube.njev,
              "steps": tube.nsteps, "integrator_calls": tube.calls, "wall_time_s": round(elapsed, 4),
-             "steps_main_integration": main_steps, "step_budget": RUN_STEP_BUDGET, "post_processing_step_budget": max(POST_FACTOR * main_steps, POST_FLOOR)}
+             "steps_main_integration": main_steps, "step_budget": RUN_STEP_BUDGET, "post_processing_step_budget": _post_budget(main_steps)}
     return Result(
         case=case, species=model.species.names, z=zs, F=ys[:, :n] * count, T=ys[:, n], P=ys[:, n + 1], Tc=Tc,
         Q=ys[:, n + 3] * count, Z=Z, status=status, termination=termination, hot_spot=hot, design=design,
