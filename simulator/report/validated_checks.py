@@ -81,6 +81,27 @@ CHECKS = ({'check': 'Ideal branch equals Levenspiel volume with expansion',
   'where': "runaway between p0 = 0.0175 and 0.018 atm (independent reproduction; the source's figure shows "
            'it just above 0.018 atm, from memory)',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_jumps_between_0_0175_and_0_018_atm'},
+ {'check': 'Equilibrium uses the reference pressure of the species file',
+  'source': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+            "software toolkit for chemical kinetics, thermodynamics, and transport processes', version 3.2, "
+            "https://www.cantera.org — equilibrate('TP') on the same 1-bar species file",
+  'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'where': "equilibrate('TP') on the same 1-bar species file",
+  'test': 'tests/test_physics_fixes.py::test_equilibrium_uses_the_reference_pressure_of_the_species_file'},
+ {'check': 'Kernel viscosity follows the local composition as Cantera',
+  'source': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+            "software toolkit for chemical kinetics, thermodynamics, and transport processes', version 3.2, "
+            "https://www.cantera.org — mixture-averaged viscosity (Wilke's rule over its species viscosity "
+            'fits)',
+  'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'where': "mixture-averaged viscosity (Wilke's rule over its species viscosity fits)",
+  'test': 'tests/test_physics_fixes.py::test_kernel_viscosity_follows_the_local_composition_as_cantera'},
  {'check': 'Ergun 2a fluids docstring example',
   'source': "S. Ergun, 'Fluid flow through packed columns', Chem. Eng. Prog. 48(2), 89-94, 1952 — Ergun "
             'equation, k1 = 150, k2 = 1.75 (check-values 2a)',
