@@ -284,14 +284,16 @@ def _hermite_hidden_maximum(zs, T, dTdz, noise=0.0):
         r1 = (-b - np.sqrt(np.maximum(disc, 0))) / (2 * a)
         r2 = (-b + np.sqrt(np.maximum(disc, 0))) / (2 * a)
     inside = (r1 > 0) & (r1 < 1) & (r2 > 0) & (r2 < 1)
+    k = np.nonzero(same_sign & (disc > 0) & (a != 0) & inside)[0]
+    if not len(k):
+        return k
 
-    def value(t):   # the cubic Hermite interpolant at t in [0, 1]
-        return ((2 * t ** 3 - 3 * t ** 2 + 1) * T0 + (t ** 3 - 2 * t ** 2 + t) * h * d0
-                + (-2 * t ** 3 + 3 * t ** 2) * T1 + (t ** 3 - t ** 2) * h * d1)
+    def value(t):   # the cubic Hermite interpolant at t in [0, 1] on the candidate intervals
+        return ((2 * t ** 3 - 3 * t ** 2 + 1) * T0[k] + (t ** 3 - 2 * t ** 2 + t) * h[k] * d0[k]
+                + (-2 * t ** 3 + 3 * t ** 2) * T1[k] + (t ** 3 - t ** 2) * h[k] * d1[k])
 
-    with np.errstate(invalid="ignore"):
-        rise = np.fmax(value(np.nan_to_num(r1)), value(np.nan_to_num(r2))) - np.maximum(T0, T1)
-    return np.nonzero(same_sign & (disc > 0) & (a != 0) & inside & (rise > noise))[0]
+    rise = np.maximum(value(r1[k]), value(r2[k])) - np.maximum(T0[k], T1[k])
+    return k[rise > np.broadcast_to(noise, T0.shape)[k]]
 
 
 def _resolve_fast_intervals(tube, zs, ys, dTdz, info, n):
@@ -564,6 +566,8 @@ def _negative_flow_check(model, zs, ys, atol, status, termination):
     """
     n = model.n
     tol = np.maximum(10.0 * atol[:n], 1e-9 * model.y0[:n].sum())
+    if ys[:, :n].min() >= -tol.min():          # the usual case, without a per-point test
+        return zs, ys, status, termination
     below = np.any(ys[:, :n] < -tol, axis=1)
     if not below.any():
         return zs, ys, status, termination
