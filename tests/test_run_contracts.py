@@ -280,3 +280,17 @@ def test_acceleration_term_is_flagged_in_the_dehydrogenation_demo(cases_dir):
     assert 0.05 < share < 0.09
     assert any("acceleration term of the momentum balance" in w and f"{100 * share:.0f} %" in w
                for w in result.warnings)
+
+
+def test_summary_table_prints_numbers_that_could_not_be_computed(cases_dir, capsys):
+    """Before: a summary with a null number was written and printing it raised a TypeError."""
+    import dataclasses
+
+    from simulator.output import print_summary
+
+    result = simulate(load_case(cases_dir / "hydrogenation_cooled_packed_bed.toml"))
+    broken = dataclasses.replace(result, closure={"elements_relative": float("nan"), "energy_relative": None},
+                                 hot_spot=dict(result.hot_spot, temperature_K=float("nan")))
+    print_summary(broken)
+    out = capsys.readouterr().out
+    assert "energy not computed" in out and "hot spot          not computed" in out

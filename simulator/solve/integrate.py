@@ -496,6 +496,10 @@ def _simulate(case, model=None, length=None):
     # target conversion (recorded, the run continues)
     key = model.key_index
     F0k = model.y0[key]
+    if not F0k > 0 and status != "failed":
+        status = "failed"
+        termination = (f"design.key_species = {case.design.key_species!r} is not in the feed: its conversion "
+                       "is not defined; choose a reactant of the feed")
     X = (F0k - ys[:, key]) / F0k
     design = {"target_conversion": None, "reached": False, "length_m": None, "volume_m3": None,
               "catalyst_mass_kg": None}
