@@ -294,3 +294,18 @@ def test_summary_table_prints_numbers_that_could_not_be_computed(cases_dir, caps
     print_summary(broken)
     out = capsys.readouterr().out
     assert "energy not computed" in out and "hot spot          not computed" in out
+
+
+def test_a_fine_output_grid_still_completes_within_the_budget(cases_dir, tmp_path):
+    """invariant: 20 001 output points leave 2 steps per interval to the first call; the chunked
+    continuation finishes the run within the budget and agrees with the normal grid to 1e-6
+    (the restarts at chunk boundaries cost accuracy of the order of rtol only)."""
+    name = "hydrogenation_cooled_packed_bed.toml"
+    path = tmp_path / name
+    path.write_text((cases_dir / name).read_text() + '\n[solver]\noutput_points = 20001\n')
+    fine = simulate(load_case(path))
+    normal = simulate(load_case(cases_dir / name))
+    assert fine.status == "completed"
+    assert fine.solver_stats["steps_main_integration"] <= I.RUN_STEP_BUDGET
+    assert fine.outlet_conversion == pytest.approx(normal.outlet_conversion, abs=1e-6)
+    assert fine.hot_spot["temperature_K"] == pytest.approx(normal.hot_spot["temperature_K"], abs=1e-4)

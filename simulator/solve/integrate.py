@@ -108,11 +108,7 @@ class _Tube:
         steps = 0
         # after a failure odeint leaves the entries of the outputs it did not reach unset: count only
         # the reached ones (tcur[i] >= zs[i + 1]), and the interval that ran out of steps in full
-        reached = len(info["nst"])
-        if info["message"] != SUCCESS:
-            tcur = np.asarray(info["tcur"], dtype=float)
-            ok = tcur[:len(zs) - 1] >= zs[1:len(tcur) + 1] - 1e-12 * abs(zs[-1])
-            reached = int(np.argmin(ok)) if not ok.all() else len(ok)
+        reached = _reached(info, zs)
         if reached:
             self.nfev += int(info["nfe"][reached - 1])
             self.njev += int(info["nje"][reached - 1])
@@ -148,30 +144,49 @@ class _Tube:
         return self.K.rhs_odeint(y, z, *self.model.args)
 
 
+def _guarded(compute, fallback):
+    """compute() or, when the state makes its arithmetic fail (overflow, division by zero), fallback."""
+    try:
+        return compute()
+    except ARITHMETIC_ERRORS:
+        return fallback
+
+
+def _reached(info, zs):
+    """How many output intervals of an odeint call were completed (all when it succeeded)."""
+    if info["message"] == SUCCESS:
+        return len(zs) - 1
+    tcur = np.asarray(info["tcur"], dtype=float)
+    ok = tcur[:len(zs) - 1] >= zs[1:len(tcur) + 1] - 1e-12 * abs(zs[-1])
+    return int(np.argmin(ok)) if not ok.all() else len(ok)
+
+
+#: steps an output interval may take in one call of the continuation (see _integrate_budgeted)
+CHUNK_STEPS = 1_000
+
+
 def _integrate_budgeted(tube, y0, zs):
     """Main integration on the output grid within RUN_STEP_BUDGET steps in all.
 
     One ODEPACK call over the whole grid with a per-interval step limit of the budget divided
     over the intervals (so that call alone stays within the budget; a normal run never comes
-    near it). If one interval needs more, the run continues from the last output point one
-    interval per call, each allowed what is left of the budget. Returns (ys, info) with the
-    ``message``, ``tcur`` and cumulative ``nst`` of odeint's ``full_output`` for the whole grid.
+    near it). If an interval needs more, the run continues from the last output point reached
+    in calls over chunks of c intervals, each interval allowed (what is left of the budget) / c
+    steps, with c = (what is left) / CHUNK_STEPS, so no call can overrun the budget and c
+    shrinks to 1 (the whole rest for one interval) as the budget is used up. Returns (ys, info)
+    with the ``message``, ``tcur`` and cumulative ``nst`` of odeint's ``full_output``.
     """
     n_int = len(zs) - 1
     per_interval = max(RUN_STEP_BUDGET // n_int, 1)
     ys, info, used = tube.run(y0, zs, mxstep=per_interval)
     if info["message"] == SUCCESS:
         return ys, info
-    if info["message"].startswith(BALANCE_ERROR):  # where it happened: again, one interval per call
-        ys[0], info["tcur"][:] = y0, zs[0]
-    elif "Excess work done" not in info["message"]:
+    single = info["message"].startswith(BALANCE_ERROR)   # where it happened: one interval per call
+    if not single and "Excess work done" not in info["message"]:
         return ys, info
-    tcur = np.asarray(info["tcur"], dtype=float)
-    k = 0                                  # last output point reached by the first call
-    while k < n_int and k < len(tcur) and tcur[k] >= zs[k + 1] - 1e-12 * zs[-1]:
-        k += 1
+    k = 0 if single else _reached(info, zs)
     nst = list(np.asarray(info["nst"], dtype=float)[:k])
-    tcur = list(tcur[:k])
+    tcur = list(np.asarray(info["tcur"], dtype=float)[:k])
     message = SUCCESS
     while k < n_int:
         left = RUN_STEP_BUDGET - used
@@ -179,16 +194,22 @@ def _integrate_budgeted(tube, y0, zs):
             message = "Excess work done on this call (run step budget)."
             tcur.append(zs[k])
             break
-        sol, part, steps = tube.run(ys[k], zs[k:k + 2], mxstep=left)
+        c = 1 if single else max(1, min(n_int - k, left // CHUNK_STEPS))
+        sol, part, steps = tube.run(ys[k], zs[k:k + c + 1], mxstep=max(left // c, 1))
+        r = _reached(part, zs[k:k + c + 1]) if not part["message"].startswith(BALANCE_ERROR) else 0
+        ys[k + 1:k + 1 + r] = sol[1:1 + r]
+        nst += [used + float(v) for v in np.asarray(part["nst"], dtype=float)[:r]]
+        tcur += list(zs[k + 1:k + 1 + r])
         used += steps
-        if part["message"] != SUCCESS:
-            message = part["message"]
-            tcur.append(float(np.max(part["tcur"])) if len(part["tcur"]) else zs[k])
-            break
-        ys[k + 1] = sol[-1]
-        nst.append(used)
-        tcur.append(zs[k + 1])
-        k += 1
+        k += r
+        if part["message"] == SUCCESS:
+            continue
+        if c > 1:                     # retry from the point reached, with what is left (smaller c)
+            single = single or part["message"].startswith(BALANCE_ERROR)
+            continue
+        message = part["message"]
+        tcur.append(float(np.max(part["tcur"])) if len(part["tcur"]) else zs[k])
+        break
     if message != SUCCESS:
         ys[k + 1:] = np.nan
     return ys, {"message": message, "tcur": np.array(tcur), "nst": np.array(nst + [used] * (n_int - len(nst)))}
@@ -516,10 +537,10 @@ def _simulate(case, model=None, length=None):
 
     hot = _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit="temperature_limit" in events)
     Tc = ys[:, n + 2]
-    Z = compressibility_profile(model, ys, tube.K)
+    Z = _guarded(lambda: compressibility_profile(model, ys, tube.K), np.full(len(zs), np.nan))
     count = model.count
-    clos = closure(model, ys, tube.K)
-    phase = phase_failure(model, zs, ys, tube.K)
+    clos = _guarded(lambda: closure(model, ys, tube.K), {"elements_relative": math.nan, "energy_relative": math.nan})
+    phase = _guarded(lambda: phase_failure(model, zs, ys, tube.K), None)
     if phase and status == "failed":       # the likely cause of a solver failure, in plain words
         termination = f"{termination}; {phase}"
     elif status != "failed":
