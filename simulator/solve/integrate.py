@@ -432,6 +432,7 @@ def _simulate(case, model=None, length=None):
     status, termination = "completed", f"end of tube reached at z = {L:.6g} m"
     events = {}
     refusal = _budget_refusal(case, L)
+    failure_where = why = None
     if refusal is None:
         ys, info = _integrate_budgeted(tube, model.y0, zs)
         ok = info["message"] == SUCCESS
@@ -463,8 +464,9 @@ def _simulate(case, model=None, length=None):
         if last_good < len(tcur) and zs[last_good] <= tcur[last_good] <= zs[min(last_good + 1, len(zs) - 1)]:
             furthest = float(tcur[last_good])
         beyond = f"; the solver itself got to z = {furthest:.6g} m" if furthest > zs[last_good] else ""
-        termination = (f"solver failed after z = {zs[last_good]:.6g} m of {L:.6g} m (last output point: "
-                       f"T = {y[n]:.6g} K, P = {y[n + 1]:.6g} Pa{beyond}): {why}")
+        failure_where = (f"solver failed after z = {zs[last_good]:.6g} m of {L:.6g} m (last output point: "
+                         f"T = {y[n]:.6g} K, P = {y[n + 1]:.6g} Pa{beyond})")
+        termination = f"{failure_where}: {why}"
         zs, ys = zs[:last_good + 1], ys[:last_good + 1]
 
     if status != "failed":
@@ -541,8 +543,9 @@ def _simulate(case, model=None, length=None):
     count = model.count
     clos = _guarded(lambda: closure(model, ys, tube.K), {"elements_relative": math.nan, "energy_relative": math.nan})
     phase = _guarded(lambda: phase_failure(model, zs, ys, tube.K), None)
-    if phase and status == "failed":       # the likely cause of a solver failure, in plain words
-        termination = f"{termination}; {phase}"
+    if phase and status == "failed":       # the likely cause of a solver failure, first, in plain words
+        termination = (f"{failure_where}: {phase}; the solver then stopped: {why}" if failure_where
+                       else f"{termination}; {phase}")
     elif status != "failed":
         defect = phase or closure_failure(clos)
         if defect:
