@@ -309,3 +309,26 @@ def test_a_fine_output_grid_still_completes_within_the_budget(cases_dir, tmp_pat
     assert fine.solver_stats["steps_main_integration"] <= I.RUN_STEP_BUDGET
     assert fine.outlet_conversion == pytest.approx(normal.outlet_conversion, abs=1e-6)
     assert fine.hot_spot["temperature_K"] == pytest.approx(normal.hot_spot["temperature_K"], abs=1e-4)
+
+
+def test_fuzzed_zero_order_with_temperature_exponent_keeps_the_invariants(tmp_path):
+    """Fuzz finding: orders = { A = 0 } with temperature_exponent = 5 reported X = 1.6e13 and a mole
+    fraction of -1: now X <= 1 and every reported flow and mole fraction >= 0."""
+    case = _variant(tmp_path, "decomposition_empty_tube.toml",
+                    [("orders = { A = 1 }", "orders = { A = 0 }"),
+                     ('pre_exponential = "4.0e12 1/s"',
+                      'pre_exponential = "4.0e12 mol/(m^3*s)/(mol/m^3)^0"\ntemperature_exponent = 5')])
+    result = simulate(case)
+    assert result.status == "completed"
+    assert 0.0 <= result.outlet_conversion <= 1.0
+    assert result.F.min() >= 0.0 and result.mole_fractions.min() >= 0.0
+
+
+def test_a_temperature_that_is_not_positive_fails_the_run(cases_dir):
+    model = build_model(load_case(cases_dir / "decomposition_empty_tube.toml"))
+    zs = np.linspace(0.0, 1.0, 4)
+    ys = np.tile(model.y0, (4, 1))
+    ys[2:, model.n] = -1e-12
+    z, y, status, why = I._negative_flow_check(model, zs, ys, model.scale * 1e-10, "completed", "end")
+    assert status == "failed" and "temperature or pressure not positive at z = 0.666667 m" in why
+    assert len(z) == 2

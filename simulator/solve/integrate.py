@@ -521,8 +521,9 @@ def _simulate(case, model=None, length=None):
     F0k = model.y0[key]
     if not F0k > 0 and status != "failed":
         status = "failed"
-        termination = (f"design.key_species = {case.design.key_species!r} is not in the feed: its conversion "
-                       "is not defined; choose a reactant of the feed")
+        termination = (f"design.key_species = {case.design.key_species!r} is not in the feed (or so dilute that "
+                       "its flow per tube underflows to zero): its conversion is not defined; choose a main "
+                       "reactant of the feed")
     X = (F0k - ys[:, key]) / F0k
     design = {"target_conversion": None, "reached": False, "length_m": None, "volume_m3": None,
               "catalyst_mass_kg": None}
@@ -561,7 +562,7 @@ def _simulate(case, model=None, length=None):
              "steps": tube.nsteps, "integrator_calls": tube.calls, "wall_time_s": round(elapsed, 4),
              "steps_main_integration": main_steps, "step_budget": RUN_STEP_BUDGET, "post_processing_step_budget": _post_budget(main_steps)}
     return Result(
-        case=case, species=model.species.names, z=zs, F=ys[:, :n] * count, T=ys[:, n], P=ys[:, n + 1], Tc=Tc,
+        case=case, species=model.species.names, z=zs, F=np.maximum(ys[:, :n], 0.0) * count, T=ys[:, n], P=ys[:, n + 1], Tc=Tc,
         Q=ys[:, n + 3] * count, Z=Z, status=status, termination=termination, hot_spot=hot, design=design,
         closure=clos, warnings=tuple(notes), solver_stats=stats, versions=versions(),
         references=tuple(references_used(case, model, np.any(np.isfinite(Z)))), events=events, adiabatic_temperature_rise=rise,
@@ -586,13 +587,19 @@ def _slopes(tube, zs, ys, n):
 
 
 def _negative_flow_check(model, zs, ys, atol, status, termination):
-    """Fail the run where a molar flow is more negative than the tolerance allows.
+    """Fail the run where T or P is not positive, or a molar flow is more negative than the tolerance allows.
 
     Tolerance: ten times the flow's absolute tolerance and never below 1e-9 of the feed flow
     per tube. A flow below it is a wrong answer (a rate that kept consuming what is gone, or
     an integration error), so the profile ends before it and the run is failed.
     """
     n = model.n
+    cold = np.nonzero(~(ys[:, n] > 0.0) | ~(ys[:, n + 1] > 0.0))[0]
+    if len(cold):
+        k = int(cold[0])
+        return zs[:max(k, 1)], ys[:max(k, 1)], "failed", (
+            f"temperature or pressure not positive at z = {zs[k]:.6g} m (T = {ys[k, n]:.6g} K, P = "
+            f"{ys[k, n + 1]:.6g} Pa): the state left every range the model describes")
     tol = np.maximum(10.0 * atol[:n], 1e-9 * model.y0[:n].sum())
     if ys[:, :n].min() >= -tol.min():          # the usual case, without a per-point test
         return zs, ys, status, termination
