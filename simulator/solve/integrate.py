@@ -587,23 +587,26 @@ def _slopes(tube, zs, ys, n):
 
 
 def _negative_flow_check(model, zs, ys, atol, status, termination):
-    """Fail the run where T or P is not positive, or a molar flow is more negative than the tolerance allows.
+    """Fail the run where T is not positive, or a molar flow is more negative than the tolerance allows.
 
     Tolerance: ten times the flow's absolute tolerance and never below 1e-9 of the feed flow
     per tube. A flow below it is a wrong answer (a rate that kept consuming what is gone, or
     an integration error), so the profile ends before it and the run is failed.
     """
     n = model.n
-    cold = np.nonzero(~(ys[:, n] > 0.0) | ~(ys[:, n + 1] > 0.0))[0]
+    # only the part before the pressure floor counts: the run stops there (a pressure_floor event)
+    floor = np.nonzero(ys[:, n + 1] < PRESSURE_FLOOR * model.y0[n + 1])[0]
+    upto = int(floor[0]) + 1 if len(floor) else len(zs)
+    cold = np.nonzero(~(ys[:upto, n] > 0.0))[0]
     if len(cold):
         k = int(cold[0])
         return zs[:max(k, 1)], ys[:max(k, 1)], "failed", (
-            f"temperature or pressure not positive at z = {zs[k]:.6g} m (T = {ys[k, n]:.6g} K, P = "
-            f"{ys[k, n + 1]:.6g} Pa): the state left every range the model describes")
+            f"temperature not positive at z = {zs[k]:.6g} m (T = {ys[k, n]:.6g} K): the state left every "
+            "range the model describes")
     tol = np.maximum(10.0 * atol[:n], 1e-9 * model.y0[:n].sum())
-    if ys[:, :n].min() >= -tol.min():          # the usual case, without a per-point test
+    if ys[:upto, :n].min() >= -tol.min():          # the usual case, without a per-point test
         return zs, ys, status, termination
-    below = np.any(ys[:, :n] < -tol, axis=1)
+    below = np.any(ys[:upto, :n] < -tol, axis=1)
     if not below.any():
         return zs, ys, status, termination
     k = int(np.argmax(below))
