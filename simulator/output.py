@@ -33,6 +33,11 @@ def _fmt(value):
     return "" if value != value else repr(value)
 
 
+def _f(value, spec, unit=""):
+    """A number for the table with its unit, or "not computed" (never a format error on None)."""
+    return "not computed" if value is None else f"{value:{spec}}{unit}"
+
+
 def print_summary(result, stream=None):
     """Print the short result table a user reads first."""
     import sys
@@ -44,13 +49,18 @@ def print_summary(result, stream=None):
               "  no results: the integration did not reach the end of the tube", file=stream)
         return
     o, h, d = s["outlet"], s["hot_spot"], s["design"]
+    if result.case.heat.mode == "isothermal":
+        hot = f"  hot spot          none: isothermal tube at {_f(h['temperature_K'], '.2f', ' K')}"
+    else:
+        hot = (f"  hot spot          {_f(h['temperature_K'], '.2f', ' K')} at z = {_f(h['position_m'], '.4g', ' m')} "
+               f"({_f(h['rise_above_feed_K'], '+.2f', ' K')} above feed; {h['located_by']})")
+    pressure = None if o["pressure_Pa"] is None else o["pressure_Pa"] / 1e5
     lines = [
         f"{s['title']}",
         f"  status            {s['status']}: {s['termination']}",
-        f"  outlet            X({s['key_species']}) = {o['conversion']:.4f}   T = {o['temperature_K']:.2f} K"
-        f"   P = {o['pressure_Pa'] / 1e5:.4f} bar   (z = {o['position_m']:.4g} m)",
-        f"  hot spot          {h['temperature_K']:.2f} K at z = {h['position_m']:.4g} m "
-        f"({h['rise_above_feed_K']:+.2f} K above feed; {h['located_by']})",
+        f"  outlet            X({s['key_species']}) = {_f(o['conversion'], '.4f')}   T = "
+        f"{_f(o['temperature_K'], '.2f', ' K')}   P = {_f(pressure, '.4f', ' bar')}   (z = {_f(o['position_m'], '.4g', ' m')})",
+        hot,
     ]
     if d["target_conversion"] is not None:
         if d["reached"]:
@@ -68,7 +78,8 @@ def print_summary(result, stream=None):
         lines.append(f"  adiabatic rise    not defined: {s['adiabatic']['note']} (complete conversion of "
                      f"{s['key_species']} cannot happen adiabatically)")
     c = s["closure"]
-    lines.append(f"  closure           elements {c['elements_relative']:.1e}, energy {c['energy_relative']:.1e}")
+    lines.append(f"  closure           elements {_f(c['elements_relative'], '.1e')}, energy "
+                 f"{_f(c['energy_relative'], '.1e')}")
     for w in s["warnings"]:
         lines.append(f"  warning: {w}")
     print("\n".join(lines), file=stream)

@@ -16,6 +16,8 @@ REFERENCES = {
                          "Catalysis, Wiley, 1947 (Langmuir-Hinshelwood-Hougen-Watson rate forms).",
     "ergun1952": "S. Ergun, \"Fluid flow through packed columns,\" Chem. Eng. Prog., vol. 48, no. 2, "
                  "pp. 89-94, 1952.",
+    "wilke1950": "C.R. Wilke, \"A viscosity equation for gas mixtures,\" J. Chem. Phys., vol. 18, no. 4, "
+                 "pp. 517-519, 1950, doi:10.1063/1.1747673.",
     "churchill1977": "S.W. Churchill, \"Friction-factor equation spans all fluid-flow regimes,\" Chem. Eng., "
                      "vol. 84, no. 24, pp. 91-92, 1977.",
     "colebrook1939": "C.F. Colebrook, \"Turbulent flow in pipes, with particular reference to the transition "

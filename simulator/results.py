@@ -24,7 +24,8 @@ class Result:
     Attributes
     ----------
     z : ndarray, axial position [m]
-    F : ndarray (N, n), molar flows of the whole reactor [mol/s]
+    F : ndarray (N, n), molar flows of the whole reactor [mol/s]; a flow the solver leaves negative
+        within its tolerance (beyond it the run fails) is reported as 0
     T, P, Tc : ndarray, gas temperature [K], pressure [Pa], medium temperature [K]
     Q : ndarray, heat added through the walls of all tubes up to z [W] (negative = removed)
     Z : ndarray, compressibility factor (NaN where critical data are missing) [-]
@@ -63,9 +64,14 @@ class Result:
 
     @property
     def conversion(self):
-        """Conversion of the key species along the tube, [-]."""
+        """Conversion of the key species along the tube, at most 1, [-].
+
+        A flow that the solver leaves slightly negative, within its absolute tolerance
+        (beyond it the run fails), would give X a little above 1: it is reported as 1.
+        """
         F0 = self.F[0, self.key_index]
-        return (F0 - self.F[:, self.key_index]) / F0
+        with np.errstate(divide="ignore", invalid="ignore"):
+            return np.minimum((F0 - self.F[:, self.key_index]) / F0, 1.0)
 
     @property
     def mole_fractions(self):

@@ -142,7 +142,7 @@ def adiabatic_rise(F0, T0, nu, key, nasa):
         lo, hi = T0 / 1.5, T0
         while balance(lo) > 0 and lo > T_MIN:
             hi, lo = lo, max(lo / 1.5, T_MIN)
-    if balance(lo) * balance(hi) > 0:
+    if not (balance(lo) * balance(hi) <= 0):     # same sign, or NaN for states outside any data (T ~ 0 K)
         info.update(outlet_temperature=math.nan, note=f"no solution between {T_MIN:g} K and {T_MAX:g} K")
         return math.nan, info
     T_ad = brentq(balance, lo, hi, xtol=1e-9, rtol=1e-13)

@@ -4,6 +4,8 @@ This is the one place that turns a validated :class:`~simulator.case.schema.Case
 into numbers per tube: feed split evenly over the tubes, mass velocity, viscosity
 law, rate-constant arrays and critical constants.
 """
+import math
+import sys
 from dataclasses import dataclass
 
 import numpy as np
@@ -12,7 +14,7 @@ from simulator.errors import CaseError, ThermoError
 from simulator.model import kernel as K
 from simulator.model.adiabatic import adiabatic_rise
 from simulator.thermo.critical import critical_constants
-from simulator.thermo.species_data import SpeciesData, build_species_data, mixture_viscosity
+from simulator.thermo.species_data import SpeciesData, build_species_data, mixture_viscosity, viscosity_fits
 from simulator.units import R
 
 HEAT_CODES = {("isothermal", ""): K.HEAT_ISOTHERMAL, ("adiabatic", ""): K.HEAT_ADIABATIC,
@@ -82,10 +84,13 @@ def build_model(case, species=None, constant_moles=False):
     n, m = len(names), len(case.reactions)
     index = {s: i for i, s in enumerate(names)}
     tube = case.tube
-    area = np.pi * tube.inner_diameter ** 2 / 4.0
-    F_total = feed_molar_flow(case, species)
-    x0 = np.array([dict(case.feed.mole_fractions).get(s, 0.0) for s in names])
-    F0 = x0 * F_total / tube.count
+    with np.errstate(all="ignore"):     # extreme inputs give inf/0 here, refused just below
+        area = float(np.pi * np.float64(tube.inner_diameter) ** 2 / 4.0)
+        F_total = float(feed_molar_flow(case, species))
+        x0 = np.array([dict(case.feed.mole_fractions).get(s, 0.0) for s in names])
+        F0 = x0 * F_total / tube.count
+        G = float(np.float64(F0 @ species.molar_mass) / area) if area > 0 else math.inf
+    _check_magnitudes(case, area, F_total, G)
 
     nu = np.zeros((n, m))
     ordr = np.zeros((n, m))
@@ -119,14 +124,14 @@ def build_model(case, species=None, constant_moles=False):
                             "(critical_temperature, critical_pressure, acentric_factor).")
 
     heat = case.heat
-    fp = np.zeros(K.N_FP)
+    fp = np.zeros(K.N_FP + 5 * n + 2 * n * n)       # fixed entries, then the per-species tail
     fp[K.F_AREA] = area
     fp[K.F_DIAM] = tube.inner_diameter
     fp[K.F_U] = heat.overall_coefficient
     fp[K.F_TC] = heat.medium_temperature
     fp[K.F_MCP] = heat.medium_mass_flow * heat.medium_cp / tube.count if heat.arrangement == "co-current" else 1.0
     fp[K.F_ROUGH] = tube.roughness
-    fp[K.F_G] = float(F0 @ species.molar_mass) / area
+    fp[K.F_G] = G
     fp[K.F_PMIN] = 1e-3 * case.feed.pressure
     fp[K.F_T0] = case.feed.temperature
     fp[K.F_P0] = case.feed.pressure
@@ -139,7 +144,7 @@ def build_model(case, species=None, constant_moles=False):
     fp[K.F_MUT0] = case.feed.temperature
     fp[K.F_MU0] = 1.0
     if case.pressure_drop.model != "none":
-        fp[K.F_MU0], fp[K.F_MUEXP], note = _viscosity_law(case, species, x0)
+        note = _viscosity_law(case, species, fp, x0)
 
     ip = np.array([n, m, HEAT_CODES[heat.mode, heat.arrangement], DP_CODES[case.pressure_drop.model],
                    FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax,
@@ -158,16 +163,57 @@ def build_model(case, species=None, constant_moles=False):
                  adiabatic=adiabatic_rise(F0, case.feed.temperature, nu, key, args[2]))
 
 
-def _viscosity_law(case, species, x0):
-    """(mu0 [Pa*s], exponent [-], note) of mu = mu0 (T/T_feed)^a."""
+def _check_magnitudes(case, area, F_total, G):
+    """Refuse numbers the balances cannot be written with (a CaseError naming the field).
+
+    The loader checks plausible ranges; this is the last line for cases built otherwise: a
+    cross-section, feed flow or mass velocity that underflows to zero or overflows to inf.
+    """
+    where = case.source_path
+    D = case.tube.inner_diameter
+    if not (area > 0 and math.isfinite(area)):
+        raise CaseError(f"{where}: tube.inner_diameter = {D:g} m: its cross-section ({area:g} m^2) is not a "
+                        "finite positive number; give the inner diameter of a real tube")
+    if not (F_total > 0 and math.isfinite(F_total)):
+        raise CaseError(f"{where}: feed flow: the molar flow ({F_total:g} mol/s) is not a finite positive "
+                        "number; give a feed flow of a real reactor")
+    per_tube = F_total / case.tube.count
+    if per_tube * case.solver.atol_scale < 1e6 * sys.float_info.min:
+        raise CaseError(f"{where}: feed flow: {per_tube:g} mol/s per tube is too small to integrate (its absolute "
+                        f"tolerance would be a subnormal number below {1e6 * sys.float_info.min:.3g}); give a feed "
+                        "flow of a real reactor")
+    if not (G > 0 and math.isfinite(G)):
+        raise CaseError(f"{where}: tube.inner_diameter = {D:g} m with the feed flow {F_total:g} mol/s: the mass "
+                        f"velocity ({G:g} kg/(m^2*s)) is not a finite positive number")
+
+
+def _viscosity_law(case, species, fp, x0):
+    """Fill the viscosity entries of ``fp`` (see :func:`simulator.model.kernel.viscosity`); returns the note.
+
+    A viscosity given in the case is used as a constant. Otherwise the viscosity follows the
+    local temperature and composition: Cantera's pure-species fits of its transport data,
+    combined by Wilke's rule in the kernel (the mixture-averaged rule of Cantera itself).
+    ``F_MU0`` and ``F_MUEXP`` then hold the feed gas's law mu0 (T/T_feed)^a for reference (the
+    note, and sweeps that map parameters as this function does); the kernel does not use them.
+    """
     if not np.isnan(case.pressure_drop.viscosity):
-        return case.pressure_drop.viscosity, 0.0, "given in the case (constant)"
+        fp[K.F_MUMODE] = K.VISCOSITY_CONSTANT
+        fp[K.F_MU0], fp[K.F_MUEXP] = case.pressure_drop.viscosity, 0.0
+        return "given in the case (constant)"
     T0, P0 = case.feed.temperature, case.feed.pressure
     try:
+        fits = viscosity_fits(species, case.thermo)
         mu0 = mixture_viscosity(species, case.thermo, T0, P0, x0)
         mu1 = mixture_viscosity(species, case.thermo, T0 + 100.0, P0, x0)
     except ThermoError as err:
         raise CaseError(f"{case.source_path}: pressure_drop.viscosity: {err}") from err
-    exponent = float(np.log(mu1 / mu0) / np.log((T0 + 100.0) / T0))
-    return mu0, exponent, (f"Cantera mixture-averaged transport at the feed composition: "
-                           f"{mu0:.4g} Pa*s at {T0:.1f} K, scaled as (T/T_feed)^{exponent:.3f}")
+    n = len(species.names)
+    M = species.molar_mass
+    base = K.F_VISC
+    fp[K.F_MUMODE] = K.VISCOSITY_WILKE
+    fp[K.F_MU0], fp[K.F_MUEXP] = mu0, float(np.log(mu1 / mu0) / np.log((T0 + 100.0) / T0))
+    fp[base:base + 5 * n] = fits.ravel()
+    fp[base + 5 * n:base + 5 * n + n * n] = ((M[None, :] / M[:, None]) ** 0.25).ravel()
+    fp[base + 5 * n + n * n:base + 5 * n + 2 * n * n] = (1.0 / np.sqrt(8.0 * (1.0 + M[:, None] / M[None, :]))).ravel()
+    return (f"local temperature and composition: pure-species viscosities from Cantera's transport data "
+            f"(its fits in ln T) combined by Wilke's rule (Wilke 1950); {mu0:.4g} Pa*s for the feed at {T0:.1f} K")

@@ -47,8 +47,17 @@ DP_NONE, DP_ERGUN, DP_PIPE = range(3)
 EOS_IDEAL, EOS_PR = range(2)
 # float parameters fp[...]
 (F_AREA, F_DIAM, F_U, F_TC, F_MCP, F_RHOB, F_EPS, F_DP, F_MU0, F_MUEXP, F_MUT0, F_ROUGH, F_G,
- F_PMIN, F_T0, F_P0, F_FT0) = range(17)
-N_FP = 17
+ F_PMIN, F_T0, F_P0, F_FT0, F_MUMODE) = range(18)
+N_FP = 18
+# per-species tail of fp (n species; independent of the feed, so a sweep may copy it), see build.py:
+#   fp[F_VISC + 5 i + c]               viscosity fit of species i (Cantera's form, see viscosity)
+#   fp[F_VISC + 5 n + n i + k]         (M_k / M_i)^(1/4)                          (Wilke)
+#   fp[F_VISC + 5 n + n^2 + n i + k]   1 / sqrt(8 (1 + M_i / M_k))                (Wilke)
+F_VISC = N_FP
+VISCOSITY_CONSTANT, VISCOSITY_WILKE = 0, 1
+#: amount below which a rate that does not vanish with its reactant is switched off, relative to
+#: the total feed flow per tube, [-] (see _depletion)
+DEPLETION_FRACTION = 1e-9
 # reaction columns rx[j, ...]
 X_A, X_B, X_E, X_ACT, X_BASIS, X_REV, X_DN, X_NDEN, X_NADS = range(9)
 N_RX = 9
@@ -236,13 +245,39 @@ def _power(a, e):
     return a ** e
 
 
+@njit(cache=True, inline="always")
+def _depletion(F, delta):
+    r"""Smooth switch-off of a rate that does not vanish with its reactant, [-].
+
+    A reactant of order below 1 (zero, fractional, negative) would keep being consumed after
+    it is gone (a zero-order rate does not depend on it at all). The forward rate is
+    multiplied, for each such reactant, by
+
+    .. math:: s(u) = u^2 (3 - 2u) \quad (0 < u < 1),\qquad s = 1\ (u \ge 1),\qquad s = 0\ (u \le 0)
+
+    with u = F_i / delta_i: a smoothstep, continuous with its first derivative, so the stiff
+    integrator sees no corner. delta = 1e-9 F_T,feed per tube (:data:`DEPLETION_FRACTION`, ten
+    times the default absolute tolerance of a flow): above it the rate is the stated law
+    exactly; the switch-off is common practice, no source.
+    """
+    if F >= delta:
+        return 1.0
+    if F <= 0.0:
+        return 0.0
+    u = F / delta
+    return u * u * (3.0 - 2.0 * u)
+
+
 @njit(cache=True)
-def _ln_fugacity_correction(j, T, P, F, inv, act_is_p, ip, nu, crit):
+def _ln_fugacity_correction(j, T, P, F, act_is_p, ip, nu, crit):
     """sum_i nu_ij ln(phi_i) (+ dn ln Z for concentration activities) at the current state, [-]."""
     n = ip[I_N]
     x = np.empty(n)
+    Ft = 0.0
     for i in range(n):
-        x[i] = max(F[i], 0.0) * inv
+        Ft += max(F[i], 0.0)
+    for i in range(n):   # the mixing rules need true mole fractions (also when inv = 1/F_T,0, I_FROZEN)
+        x[i] = max(F[i], 0.0) / Ft
     lnphi = np.empty(n)
     Z = pr_ln_fugacity_coefficients(T, P, x, crit, lnphi)
     total = 0.0
@@ -262,20 +297,20 @@ def _mixture(T, P, F, ip, fp, crit):
     Ft = 0.0
     for i in range(n):
         Ft += max(F[i], 0.0)
-    if ip[I_FROZEN] == 1:  # assumption check: concentrations as if the total moles did not change
-        Ft = fp[F_FT0]
     inv = 1.0 / Ft
     Z = 1.0
-    if ip[I_EOS] == EOS_PR:
+    if ip[I_EOS] == EOS_PR:   # Z of the true composition (normalised mole fractions), also when frozen
         x = np.empty(n)
         for i in range(n):
             x[i] = max(F[i], 0.0) * inv
         Z = pr_departure(T, P, x, crit)[0]
+    if ip[I_FROZEN] == 1:  # assumption check: concentrations as if the total moles did not change
+        inv = 1.0 / fp[F_FT0]
     return inv, P / (Z * R * T), Z
 
 
 @njit(cache=True, inline="always")
-def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit):
+def reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit):
     """Rate of reaction j per unit reactor volume, [mol/(m^3*s)].
 
     Activities are y_i P (partial pressure, [Pa]) or y_i P/(Z R T) (concentration,
@@ -293,6 +328,8 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit
         o = ordr[i, j]
         if o != 0.0:
             fwd *= _power(max(F[i], 0.0) * scale, o)
+        if o < 1.0 and nu[i, j] < 0.0:   # a rate that would not vanish with this reactant
+            fwd *= _depletion(F[i], DEPLETION_FRACTION * fp[F_FT0])
     r = fwd
     if rx[j, X_REV] > 0.5:
         dG_RT = 0.0
@@ -306,12 +343,14 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit
         if ip[I_EOS] == EOS_PR:
             # real gas: equilibrium in fugacities, f_i = phi_i y_i P; with concentration activities
             # y_i P/(Z R T) the quotient also carries Z^dn. Q_f/K0 = Q_a/K_a * prod(phi^nu) * (Z^dn)
-            lnK -= _ln_fugacity_correction(j, T, P, F, inv, act_is_p, ip, nu, crit)
+            lnK -= _ln_fugacity_correction(j, T, P, F, act_is_p, ip, nu, crit)
         rev = k * math.exp(-lnK)
         for i in range(n):
             e = rexp[i, j]
             if e != 0.0:
                 rev *= _power(max(F[i], 0.0) * scale, e)
+            if e < 1.0 and nu[i, j] > 0.0:   # the reverse rate consumes the products
+                rev *= _depletion(F[i], DEPLETION_FRACTION * fp[F_FT0])
         r = fwd - rev
     nads = int(rx[j, X_NADS])
     if nads > 0:
@@ -337,14 +376,74 @@ def reaction_rates(T, P, F, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit, out):
     """
     inv, ctot, Z = _mixture(T, P, F, ip, fp, crit)
     for j in range(ip[I_M]):
-        out[j] = reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit)
+        out[j] = reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit)
     return Z
 
 
 @njit(cache=True)
-def viscosity(T, fp):
-    """Gas viscosity mu0 (T/T0)^a, [Pa*s]."""
-    return fp[F_MU0] * (T / fp[F_MUT0]) ** fp[F_MUEXP]
+def viscosity(T, F, fp):
+    r"""Gas viscosity at the local temperature and composition, [Pa*s].
+
+    Parameters
+    ----------
+    T : float
+        Temperature, [K]
+    F : ndarray
+        Molar flows, [mol/s]
+    fp : ndarray
+        Float parameters with the tail laid out in the module header, [-]
+
+    Returns
+    -------
+    mu : float
+        Dynamic viscosity, [Pa*s]
+
+    Notes
+    -----
+    ``fp[F_MUMODE] == VISCOSITY_CONSTANT``: mu0 (T/T0)^a (a given constant has a = 0).
+    ``VISCOSITY_WILKE``: pure-species viscosities from the fits Cantera makes of its transport
+    data, :math:`\mu_i = \sqrt{T}\,(\sum_c a_{ic} (\ln T)^c)^2`, combined with Wilke's rule [1]_
+
+    .. math:: \mu = \sum_i \frac{x_i \mu_i}{\sum_k x_k \Phi_{ik}}, \qquad
+              \Phi_{ik} = \frac{\left(1 + \sqrt{\mu_i/\mu_k}\,(M_k/M_i)^{1/4}\right)^2}
+                               {\sqrt{8 (1 + M_i/M_k)}}
+
+    which is the mixture rule of Cantera's mixture-averaged transport, so both agree.
+
+    References
+    ----------
+    .. [1] C.R. Wilke, "A viscosity equation for gas mixtures," J. Chem. Phys., vol. 18,
+       pp. 517-519, 1950.
+    """
+    if fp[F_MUMODE] != VISCOSITY_WILKE:
+        return fp[F_MU0] * (T / fp[F_MUT0]) ** fp[F_MUEXP]
+    n = F.shape[0]
+    fits = F_VISC
+    w_mass = fits + 5 * n
+    w_den = w_mass + n * n
+    lnT = math.log(T)
+    sqT = math.sqrt(T)
+    Ft = 0.0
+    for i in range(n):
+        Ft += max(F[i], 0.0)
+    root = np.empty(n)          # sqrt(mu_i) / T^(1/4)
+    for i in range(n):
+        o = fits + 5 * i
+        root[i] = fp[o] + lnT * (fp[o + 1] + lnT * (fp[o + 2] + lnT * (fp[o + 3] + lnT * fp[o + 4])))
+    mu = 0.0
+    for i in range(n):
+        xi = max(F[i], 0.0) / Ft
+        if xi == 0.0:
+            continue
+        den = 0.0
+        for k in range(n):
+            xk = max(F[k], 0.0) / Ft
+            if xk == 0.0:
+                continue
+            t = 1.0 + root[i] / root[k] * fp[w_mass + n * i + k]
+            den += xk * t * t * fp[w_den + n * i + k]
+        mu += xi * root[i] * root[i] * sqT / den
+    return mu
 
 
 @njit(cache=True)
@@ -361,7 +460,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
     for i in range(n):
         dydz[i] = 0.0
     for j in range(m):
-        r = area * reaction_rate(j, T, P, F, inv, ctot, ip, nasa, nu, ordr, rexp, rx, ads, crit)
+        r = area * reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit)
         for i in range(n):
             v = nu[i, j]
             if v != 0.0:
@@ -382,7 +481,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             mass += Fi * mw[i]
         rho = P * (mass / Ft) / (Z * R * T)
         G = fp[F_G]
-        mu = viscosity(T, fp)
+        mu = viscosity(T, F, fp)
         if ip[I_DP] == DP_ERGUN:
             eps = fp[F_EPS]
             dp = fp[F_DP]
@@ -447,11 +546,18 @@ def _dH_dF_dep(F, T, P, nasa, ip, crit, dF):
     h = 1e-6 * Ft / norm
     Fp = np.empty(n)
     Fm = np.empty(n)
+    one_sided = False
     for i in range(n):
         Fp[i] = F[i] + h * dF[i]
         Fm[i] = F[i] - h * dF[i]
-    total = (_dep_flow(Fp, T, P, crit) - _dep_flow(Fm, T, P, crit)) / (2.0 * h)
-    return total
+        if Fm[i] < 0.0 <= F[i]:
+            one_sided = True
+    if one_sided:
+        # a species absent (a product at the inlet): the backward point would have a negative flow,
+        # which the mixture clips to zero, and the central difference would halve its share; the
+        # forward difference stays on the physical side (error O(h), h ~ 1e-6 of the flow)
+        return (_dep_flow(Fp, T, P, crit) - _dep_flow(F, T, P, crit)) / h
+    return (_dep_flow(Fp, T, P, crit) - _dep_flow(Fm, T, P, crit)) / (2.0 * h)
 
 
 @njit(cache=True)
@@ -503,6 +609,79 @@ def compressibility_profile(T, P, F, crit):
         for i in range(n):
             x[i] = max(F[k, i], 0.0) / Ft
         out[k] = pr_departure(T[k], P[k], x, crit)[0]
+    return out
+
+
+@njit(cache=True)
+def pr_phase_profile(T, P, F, crit):
+    r"""Peng-Robinson roots along a profile, to tell a gas from a liquid-like state.
+
+    Parameters
+    ----------
+    T : ndarray
+        Temperatures, [K]
+    P : ndarray
+        Pressures, [Pa]
+    F : ndarray
+        (N, n) molar flows of the species in ``crit``, [mol/s]
+    crit : ndarray
+        (n, 3) rows of critical temperature [K], critical pressure [Pa], acentric factor [-]
+
+    Returns
+    -------
+    out : ndarray
+        (N, 4): Z of the root the balances use (largest real root), Z of the smallest real
+        root above B (equal to the first when the cubic has one real root), the mixture's
+        ln(f/P) = sum_i x_i ln(phi_i) at the largest and at the smallest root, [-]
+
+    Notes
+    -----
+    .. math:: \frac{g^{dep}}{RT} = Z - 1 - \ln(Z - B) - \frac{A}{2\sqrt2 B}
+              \ln\frac{Z + (1+\sqrt2) B}{Z + (1-\sqrt2) B}
+
+    The other roots come from the quadratic left after dividing the largest one out.
+    A smaller root with a lower g^dep is a liquid at the same composition that is more stable
+    than the gas: the gas would condense, which the model (one gas phase) does not describe.
+    """
+    N = T.shape[0]
+    n = F.shape[1]
+    out = np.empty((N, 4))
+    x = np.empty(n)
+    ai = np.empty(n)
+    bi = np.empty(n)
+    s2 = math.sqrt(2.0)
+    for k in range(N):
+        Ft = 0.0
+        for i in range(n):
+            Ft += max(F[k, i], 0.0)
+        am = 0.0
+        bm = 0.0
+        for i in range(n):
+            x[i] = max(F[k, i], 0.0) / Ft
+            ai[i], _, bi[i] = _pr_pure(T[k], crit[i, 0], crit[i, 1], crit[i, 2])
+            bm += x[i] * bi[i]
+        for i in range(n):
+            for j in range(n):
+                am += x[i] * x[j] * math.sqrt(ai[i] * ai[j])
+        A = am * P[k] / (R * T[k]) ** 2
+        B = bm * P[k] / (R * T[k])
+        Z1 = pr_departure(T[k], P[k], x, crit)[0]
+        c2 = -(1.0 - B)
+        c1 = A - 3.0 * B * B - 2.0 * B
+        p = c2 + Z1                  # Z^2 + p Z + q = 0 after dividing out (Z - Z1)
+        q = c1 + p * Z1
+        Z2 = Z1
+        disc = p * p - 4.0 * q
+        if disc > 0.0:
+            small = (-p - math.sqrt(disc)) / 2.0
+            if small > B:
+                Z2 = small
+        out[k, 0] = Z1
+        out[k, 1] = Z2
+        for c in range(2):
+            Z = out[k, c]
+            out[k, 2 + c] = (Z - 1.0 - math.log(Z - B) - A / (2.0 * s2 * B)
+                             * math.log((Z + (1.0 + s2) * B) / (Z + (1.0 - s2) * B)))
     return out
 
 

@@ -25,7 +25,8 @@ CHECKS = ({'key': 'levenspiel1999',
               '3.2, https://www.cantera.org',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
-              'enthalpy balance on the same data',
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport',
   'where': "equilibrate('TP'): Gibbs minimisation on the same species data",
   'test': 'tests/test_balances.py::test_reversible_rate_runs_to_the_equilibrium_cantera_computes'},
  {'key': 'fluids',
@@ -41,7 +42,8 @@ CHECKS = ({'key': 'levenspiel1999',
               '3.2, https://www.cantera.org',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
-              'enthalpy balance on the same data',
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport',
   'where': 'enthalpy balance at fixed composition (HPX) on the same NASA data',
   'test': 'tests/test_balances.py::test_adiabatic_rise_takes_the_worst_case_over_several_reactions'},
  {'key': 'froment1967',
@@ -64,6 +66,26 @@ CHECKS = ({'key': 'levenspiel1999',
   'where': "runaway between p0 = 0.0175 and 0.018 atm (independent reproduction; the source's figure shows "
            'it just above 0.018 atm, from memory)',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_jumps_between_0_0175_and_0_018_atm'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport',
+  'where': "equilibrate('TP') on the same 1-bar species file",
+  'test': 'tests/test_physics_fixes.py::test_equilibrium_uses_the_reference_pressure_of_the_species_file'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport',
+  'where': "mixture-averaged viscosity (Wilke's rule over its species viscosity fits)",
+  'test': 'tests/test_physics_fixes.py::test_kernel_viscosity_follows_the_local_composition_as_cantera'},
  {'key': 'ergun1952',
   'citation': "S. Ergun, 'Fluid flow through packed columns', Chem. Eng. Prog. 48(2), 89-94, 1952",
   'compared': 'Packed-bed pressure gradient against the Ergun equation evaluated by hand (gas and liquid, '
@@ -288,7 +310,8 @@ CHECKS = ({'key': 'levenspiel1999',
               '3.2, https://www.cantera.org',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
-              'enthalpy balance on the same data',
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport',
   'where': "Peng-Robinson chemical potentials of Cantera's own PR phase",
   'test': 'tests/test_real_gas.py::test_reversible_reaction_on_peng_robinson_reaches_fugacity_equilibrium'},
  {'key': 'semenov1928',

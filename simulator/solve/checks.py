@@ -83,6 +83,56 @@ def closure(model, ys, K=compiled_kernel):
 CLOSURE_LIMITS = {"elements_relative": 1e-9, "energy_relative": 1e-6}
 
 
+#: Closure above which the run is failed, not merely flagged: at the tolerances a case may ask for
+#: (rtol <= 1e-3) integration error stays well below these, so a larger one is a model defect
+#: (a liquid root, a phase change, a state the thermo does not cover), [-]
+CLOSURE_FAILURE = {"elements_relative": 1e-4, "energy_relative": 1e-2}
+#: Z below which the only root of the cubic is taken as liquid-like (below the pseudo-critical
+#: temperature), [-]; common practice, no source
+LIQUID_LIKE_Z = 0.3
+
+
+def closure_failure(closure_values):
+    """Why a run's closure makes it a failed run (a phrase), or None."""
+    for key, limit in CLOSURE_FAILURE.items():
+        value = closure_values.get(key)
+        if value is not None and not value <= limit:
+            what = "element (mass)" if key.startswith("elements") else "energy"
+            return (f"the {what} balance closes only to {value:.2g} (a run is failed above {limit:g}): the "
+                    "results are not trustworthy")
+    return None
+
+
+def phase_failure(model, zs, ys, K=compiled_kernel):
+    """Where the Peng-Robinson gas is not a gas (liquid-like root or a more stable liquid), or None.
+
+    Detects, at each profile point, a cubic whose smaller root at the same composition has the
+    lower Gibbs energy (the gas would condense), or a single root that is liquid-like
+    (Z < :data:`LIQUID_LIKE_Z` below Kay's pseudo-critical temperature sum_i x_i Tc_i). A
+    mixture can also split into two phases before either shows; that is not detected here.
+    """
+    if model.case.thermo.equation_of_state != "peng-robinson":
+        return None
+    n = model.n
+    crit = model.args[9]
+    F = np.ascontiguousarray(np.clip(ys[:, :n], 0.0, None))
+    roots = K.pr_phase_profile(np.ascontiguousarray(ys[:, n]), np.ascontiguousarray(ys[:, n + 1]), F, crit)
+    x = F / F.sum(axis=1, keepdims=True)
+    T_pc = x @ crit[:, 0]
+    condenses = (roots[:, 1] < roots[:, 0]) & (roots[:, 3] < roots[:, 2])
+    liquid = (roots[:, 0] < LIQUID_LIKE_Z) & (ys[:, n] < T_pc)
+    bad = np.nonzero(condenses | liquid)[0]
+    if not len(bad):
+        return None
+    k = int(bad[0])
+    main = int(np.argmax(x[k]))
+    what = ("a liquid at the same composition is more stable than the gas (the gas would condense)"
+            if condenses[k] else f"the only Peng-Robinson root is liquid-like (Z = {roots[k, 0]:.3g})")
+    return (f"at z = {zs[k]:.6g} m (T = {ys[k, n]:.6g} K, P = {ys[k, n + 1]:.6g} Pa) {what}; the model has one "
+            f"gas phase and no phase change (main species {model.species.names[main]}, critical temperature "
+            f"{crit[main, 0]:.4g} K): raise the temperature or lower the pressure")
+
+
 def closure_warnings(closure_values):
     """Warnings for closures above :data:`CLOSURE_LIMITS` (loose tolerances or a model defect)."""
     out = []

@@ -28,10 +28,13 @@ import numpy as np
 from scipy.integrate import ODEintWarning, odeint
 from scipy.optimize import brentq
 
+from simulator.model import kernel as model_kernel
 from simulator.model import kernels
 from simulator.model.build import build_model
 from simulator.results import Result
-from simulator.solve.checks import closure, closure_warnings, compressibility_profile, range_warnings
+from simulator.units import R as R_GAS
+from simulator.solve.checks import (closure, closure_failure, closure_warnings, compressibility_profile,
+                                    phase_failure, range_warnings)
 
 PRESSURE_FLOOR = 0.01   # fraction of the feed pressure below which the run stops
 
@@ -49,8 +52,29 @@ def versions():
     return out
 
 
+#: Work budget of one run, in ODEPACK steps: the main integration may take at most this many
+#: steps in all (not per output interval; about 4 s at the worst observed cost of a step); the
+#: post-processing (events, hot spot, fast intervals) at most POST_FACTOR times the steps the main
+#: integration took, never fewer than POST_FLOOR and never more than POST_CEILING.
+RUN_STEP_BUDGET = 50_000
+POST_FACTOR, POST_FLOOR, POST_CEILING = 4, 1_000, 10_000
+SUCCESS = "Integration successful."
+BALANCE_ERROR = "the balances could not be evaluated"
+#: what the plain-Python kernel raises on overflow, division by zero or a log/sqrt of a negative number
+ARITHMETIC_ERRORS = (ArithmeticError, ValueError)
+
+
+class ReintegrationFailed(Exception):
+    """A re-integration from an output point failed or its budget is spent: its states are not used."""
+
+
 class _Tube:
-    """Integration of one model, with re-integration from output points for events."""
+    """Integration of one model, with re-integration from output points for events.
+
+    ``post_budget`` is the number of steps the re-integrations may still take (set by
+    :func:`simulate` once the main integration is done); a re-integration that fails or would
+    exceed it raises :class:`ReintegrationFailed`, so no event is ever found on a failed one.
+    """
 
     def __init__(self, model, rtol, atol, hmax, kernel):
         self.model = model
@@ -62,46 +86,166 @@ class _Tube:
         self.njev = 0
         self.nsteps = 0
         self.calls = 0
+        self.post_budget = None
+        self.unresolved = 0        # maxima between output points the re-integrations could not resolve
 
-    def run(self, y0, zs):
+    def run(self, y0, zs, mxstep):
+        """One odeint call; an arithmetic error inside the balances (the plain-Python kernel raises
+        where the compiled one returns inf/NaN) becomes a failed call with that message."""
         with warnings.catch_warnings():  # the status is checked and reported by simulate()
             warnings.simplefilter("ignore", ODEintWarning)
-            sol, info = odeint(self.K.rhs_odeint, y0, zs, args=self.model.args, rtol=self.rtol, atol=self.atol,
-                               full_output=True, hmax=self.hmax, mxstep=MAX_STEPS, printmessg=False)
+            try:
+                sol, info = odeint(self.K.rhs_odeint, y0, zs, args=self.model.args, rtol=self.rtol,
+                                   atol=self.atol, full_output=True, hmax=self.hmax, mxstep=mxstep,
+                                   printmessg=False)
+            except ARITHMETIC_ERRORS as err:
+                self.calls += 1
+                sol = np.full((len(zs), len(y0)), np.nan)
+                sol[0] = y0
+                return sol, {"message": f"{BALANCE_ERROR} ({err})", "tcur": np.array([zs[0]]),
+                             "nst": np.zeros(0), "nfe": np.zeros(0), "nje": np.zeros(0)}, 0
         self.calls += 1
-        if len(info["nfe"]):
-            self.nfev += int(info["nfe"][-1])
-            self.njev += int(info["nje"][-1])
-            self.nsteps += int(info["nst"][-1])
-        return sol, info
+        steps = 0
+        # after a failure odeint leaves the entries of the outputs it did not reach unset: count only
+        # the reached ones (tcur[i] >= zs[i + 1]), and the interval that ran out of steps in full
+        reached = _reached(info, zs)
+        if reached:
+            self.nfev += int(info["nfe"][reached - 1])
+            self.njev += int(info["nje"][reached - 1])
+            steps = int(info["nst"][reached - 1])
+        if info["message"] != SUCCESS and "Excess work done" in info["message"]:
+            steps += mxstep
+        self.nsteps += steps
+        return sol, info, steps
+
+    def spend(self, steps):
+        """Take ``steps`` from the post-processing budget; raises when it is spent."""
+        if self.post_budget is not None:
+            self.post_budget -= steps
+            if self.post_budget < 0:
+                raise ReintegrationFailed("post-processing step budget spent")
+
+    def remaining(self):
+        return RUN_STEP_BUDGET if self.post_budget is None else max(int(self.post_budget), 0)
 
     def state_at(self, z0, y0, z):
+        """State at z re-integrated from (z0, y0); raises ReintegrationFailed when that fails."""
         if z == z0:
             return y0
-        sol, info = self.run(y0, np.array([z0, z]))
+        if self.remaining() <= 0:
+            raise ReintegrationFailed("post-processing step budget spent")
+        sol, info, steps = self.run(y0, np.array([z0, z]), mxstep=self.remaining())
+        self.spend(steps)
+        if info["message"] != SUCCESS or not np.all(np.isfinite(sol[-1])):
+            raise ReintegrationFailed(info["message"])
         return sol[-1]
 
     def derivative(self, z, y):
         return self.K.rhs_odeint(y, z, *self.model.args)
 
 
-MAX_STEPS = 100000   # ODEPACK step budget of one integration
+def _guarded(compute, fallback):
+    """compute() or, when the state makes its arithmetic fail (overflow, division by zero), fallback."""
+    try:
+        return compute()
+    except ARITHMETIC_ERRORS:
+        return fallback
+
+
+def _reached(info, zs):
+    """How many output intervals of an odeint call were completed (all when it succeeded)."""
+    if info["message"] == SUCCESS:
+        return len(zs) - 1
+    tcur = np.asarray(info["tcur"], dtype=float)
+    ok = tcur[:len(zs) - 1] >= zs[1:len(tcur) + 1] - 1e-12 * abs(zs[-1])
+    return int(np.argmin(ok)) if not ok.all() else len(ok)
+
+
+#: steps an output interval may take in one call of the continuation (see _integrate_budgeted)
+CHUNK_STEPS = 1_000
+
+
+def _integrate_budgeted(tube, y0, zs):
+    """Main integration on the output grid within RUN_STEP_BUDGET steps in all.
+
+    One ODEPACK call over the whole grid with a per-interval step limit of the budget divided
+    over the intervals (so that call alone stays within the budget; a normal run never comes
+    near it). If an interval needs more, the run continues from the last output point reached
+    in calls over chunks of c intervals, each interval allowed (what is left of the budget) / c
+    steps, with c = (what is left) / CHUNK_STEPS, so no call can overrun the budget and c
+    shrinks to 1 (the whole rest for one interval) as the budget is used up. Returns (ys, info)
+    with the ``message``, ``tcur`` and cumulative ``nst`` of odeint's ``full_output``.
+    """
+    n_int = len(zs) - 1
+    per_interval = max(RUN_STEP_BUDGET // n_int, 1)
+    ys, info, used = tube.run(y0, zs, mxstep=per_interval)
+    if info["message"] == SUCCESS:
+        return ys, info
+    single = info["message"].startswith(BALANCE_ERROR)   # where it happened: one interval per call
+    if not single and "Excess work done" not in info["message"]:
+        return ys, info
+    k = 0 if single else _reached(info, zs)
+    nst = list(np.asarray(info["nst"], dtype=float)[:k])
+    tcur = list(np.asarray(info["tcur"], dtype=float)[:k])
+    message = SUCCESS
+    while k < n_int:
+        left = RUN_STEP_BUDGET - used
+        if left <= 0:
+            message = "Excess work done on this call (run step budget)."
+            tcur.append(zs[k])
+            break
+        c = 1 if single else max(1, min(n_int - k, left // CHUNK_STEPS))
+        sol, part, steps = tube.run(ys[k], zs[k:k + c + 1], mxstep=max(left // c, 1))
+        r = _reached(part, zs[k:k + c + 1]) if not part["message"].startswith(BALANCE_ERROR) else 0
+        ys[k + 1:k + 1 + r] = sol[1:1 + r]
+        nst += [used + float(v) for v in np.asarray(part["nst"], dtype=float)[:r]]
+        tcur += list(zs[k + 1:k + 1 + r])
+        used += steps
+        k += r
+        if part["message"] == SUCCESS:
+            continue
+        if c > 1:                     # retry from the point reached, with what is left (smaller c)
+            single = single or part["message"].startswith(BALANCE_ERROR)
+            continue
+        message = part["message"]
+        tcur.append(float(np.max(part["tcur"])) if len(part["tcur"]) else zs[k])
+        break
+    if message != SUCCESS:
+        ys[k + 1:] = np.nan
+    return ys, {"message": message, "tcur": np.array(tcur), "nst": np.array(nst + [used] * (n_int - len(nst)))}
+
+
+def _post_budget(main_steps):
+    """Steps the post-processing of a run may take, [-]."""
+    return min(max(POST_FACTOR * main_steps, POST_FLOOR), POST_CEILING)
+
+
+def _budget_refusal(case, length):
+    """Why the run cannot fit its step budget before it starts (solver.max_step too small), or None."""
+    max_step = case.solver.max_step
+    if max_step > 0 and length / max_step > RUN_STEP_BUDGET:
+        return (f"solver.max_step = {max_step:g} m needs at least {length / max_step:.3g} steps for a "
+                f"{length:g} m tube, more than the run's budget of {RUN_STEP_BUDGET} steps; raise or remove it")
+    return None
 
 
 def _explain_failure(message, case, length):
     """A solver failure in plain words with the likely cause and what to change (one sentence each)."""
     text = " ".join(message.split()).rstrip(".")
     max_step = case.solver.max_step
+    if text.startswith(BALANCE_ERROR):
+        return (f"{text}: overflow, division by zero or a logarithm of a negative number in the rates or "
+                "properties; check the kinetics, their units and the feed")
     if not message:
         return ("the state became non-finite (overflow or a negative concentration raised to a negative or "
                 "fractional order); check the kinetics, its units and the feed")
     if "Excess work done" in text:
-        if max_step > 0 and length / max_step > 0.5 * MAX_STEPS:
-            return (f"step budget of {MAX_STEPS} steps exhausted because solver.max_step = {max_step:g} m is far "
-                    f"too small for a {length:g} m tube; raise or remove it")
-        return (f"step budget of {MAX_STEPS} steps exhausted: the solution changes extremely fast here (a "
-                "runaway, or rate constants far too large); check the kinetics and their units, or set "
-                "design.temperature_limit to stop a runaway")
+        if max_step > 0 and length / max_step > 0.5 * RUN_STEP_BUDGET:
+            return (f"the run's budget of {RUN_STEP_BUDGET} solver steps is spent because solver.max_step = "
+                    f"{max_step:g} m is far too small for a {length:g} m tube; raise or remove it")
+        return (f"the run's budget of {RUN_STEP_BUDGET} solver steps is spent: the solution changes extremely "
+                "fast here (a runaway, or rate constants far too large); check the kinetics and their units, "
+                "or set design.temperature_limit to stop a runaway")
     if "Excess accuracy requested" in text:
         return "the tolerances are tighter than double precision allows; loosen [solver] rtol / atol_scale"
     if "Illegal input" in text:
@@ -130,18 +274,26 @@ def _refine(tube, zs, ys, k, g):
 
     try:
         root = brentq(f, z0, zs[k + 1], xtol=max(1e-12, 1e-10 * span), rtol=1e-12, maxiter=100)
-    except ValueError:  # no sign change on the refined trajectory (grazing): keep the grid point
-        root = zs[k + 1]
-    return root, tube.state_at(z0, y0, root)
+        return root, tube.state_at(z0, y0, root)
+    except (ValueError, ReintegrationFailed):
+        # no sign change on the refined trajectory (grazing), or a re-integration failed or ran out of
+        # budget: keep the output point after the crossing, a state of the main integration
+        return zs[k + 1], ys[k + 1]
 
 
 STEP_ALARM = 40     # solver steps between two output points above which the interval is resolved
 MAX_RESOLVED = 25   # intervals resolved at most per run
 
 
-def _hermite_hidden_maximum(zs, T, dTdz):
+def _hermite_hidden_maximum(zs, T, dTdz, noise=0.0):
     """Intervals whose cubic Hermite interpolant has an interior maximum although dT/dz has the same
-    sign at both ends (a peak and a dip inside one output interval)."""
+    sign at both ends (a peak and a dip inside one output interval), rising more than ``noise`` [K]
+    above both ends.
+
+    On an equilibrium plateau dT/dz from the right-hand side is the small difference of large
+    forward and reverse terms and does not match the trajectory; the interpolant then shows
+    "peaks" of the size of the solver's own error. Those are not resolved (a hot spot missed by
+    less than the tolerance changes nothing)."""
     h = np.diff(zs)
     T0, T1, d0, d1 = T[:-1], T[1:], dTdz[:-1], dTdz[1:]
     a = 6 * (T0 - T1) + 3 * h * (d0 + d1)
@@ -153,7 +305,16 @@ def _hermite_hidden_maximum(zs, T, dTdz):
         r1 = (-b - np.sqrt(np.maximum(disc, 0))) / (2 * a)
         r2 = (-b + np.sqrt(np.maximum(disc, 0))) / (2 * a)
     inside = (r1 > 0) & (r1 < 1) & (r2 > 0) & (r2 < 1)
-    return np.nonzero(same_sign & (disc > 0) & (a != 0) & inside)[0]
+    k = np.nonzero(same_sign & (disc > 0) & (a != 0) & inside)[0]
+    if not len(k):
+        return k
+
+    def value(t):   # the cubic Hermite interpolant at t in [0, 1] on the candidate intervals
+        return ((2 * t ** 3 - 3 * t ** 2 + 1) * T0[k] + (t ** 3 - 2 * t ** 2 + t) * h[k] * d0[k]
+                + (-2 * t ** 3 + 3 * t ** 2) * T1[k] + (t ** 3 - t ** 2) * h[k] * d1[k])
+
+    rise = np.maximum(value(r1[k]), value(r2[k])) - np.maximum(T0[k], T1[k])
+    return k[rise > np.broadcast_to(noise, T0.shape)[k]]
 
 
 def _resolve_fast_intervals(tube, zs, ys, dTdz, info, n):
@@ -163,25 +324,42 @@ def _resolve_fast_intervals(tube, zs, ys, dTdz, info, n):
     count is in ``info["nst"]``), or when the Hermite interpolant of T hides a maximum there. The
     interval is integrated again by scipy's LSODA (same tolerances) and its internal step points,
     which follow the dynamics, are added to the profile, so events and the hot spot are found
-    on them as on any output point.
+    on them as on any output point. The steps come out of the post-processing budget.
     """
-    from scipy.integrate import solve_ivp
+    from scipy.integrate import LSODA
 
     nst = np.asarray(info["nst"], dtype=float)[:len(zs) - 1]
     steps = np.diff(np.concatenate([[0.0], nst]))
+    noise = 10.0 * (tube.rtol * np.abs(ys[:-1, n]) + tube.atol[n])
     flagged = set(np.nonzero(steps > STEP_ALARM)[0].tolist()) | set(
-        _hermite_hidden_maximum(zs, ys[:, n], dTdz).tolist())
+        _hermite_hidden_maximum(zs, ys[:, n], dTdz, noise).tolist())
     if not flagged:
         return zs, ys, False
     K, args = tube.K, tube.model.args
     new_z, new_y = [zs], [ys]
     for k in sorted(flagged)[:MAX_RESOLVED]:
-        sol = solve_ivp(lambda z, y: K.rhs_odeint(y, z, *args), (zs[k], zs[k + 1]), ys[k], method="LSODA",
-                        rtol=tube.rtol, atol=tube.atol)
-        inner = (sol.t > zs[k]) & (sol.t < zs[k + 1])
-        if sol.status == 0 and inner.any():
-            new_z.append(sol.t[inner])
-            new_y.append(sol.y[:, inner].T)
+        if tube.remaining() <= 0:
+            break
+        solver = LSODA(lambda z, y: K.rhs_odeint(y, z, *args), zs[k], ys[k], zs[k + 1], rtol=tube.rtol,
+                       atol=tube.atol)
+        points, states, budget = [], [], tube.remaining()
+        try:
+            while solver.status == "running" and len(points) < budget:
+                solver.step()
+                points.append(solver.t)
+                states.append(solver.y.copy())
+        except ARITHMETIC_ERRORS:       # the balances failed inside this interval: keep what was reached
+            solver.status = "failed"
+        tube.post_budget -= len(points)
+        z_in = np.array(points)
+        inner = (z_in > zs[k]) & (z_in < zs[k + 1])
+        # a finished interval's step points are the solver's own trajectory, and so are those of one
+        # whose budget ran out (kept if finite); a failed one's are not used
+        if inner.any() and solver.status != "failed":
+            y_in = np.array(states)[inner]
+            good = np.all(np.isfinite(y_in), axis=1)
+            new_z.append(z_in[inner][good])
+            new_y.append(y_in[good])
     z_all = np.concatenate(new_z)
     order = np.argsort(z_all, kind="stable")
     return z_all[order], np.ascontiguousarray(np.vstack(new_y)[order]), len(new_z) > 1
@@ -200,18 +378,31 @@ def _limit_crossing(tube, zs, ys, dTdz, n, T_lim):
         k = int(k)
         if max(ys[k, n], ys[k + 1, n]) >= T_lim:
             continue
-        z_m, y_m = _locate_maximum(tube, zs, ys, k, dTdz, n)
-        if y_m[n] > T_lim:
-            z0, y0 = zs[k], ys[k]
-            root = brentq(lambda z: tube.state_at(z0, y0, z)[n] - T_lim, z0, z_m,
-                          xtol=max(1e-12, 1e-10 * (z_m - z0)), rtol=1e-12, maxiter=100)
-            return root, tube.state_at(z0, y0, root)
+        try:   # an event is reported only from successful re-integrations
+            z_m, y_m = _locate_maximum(tube, zs, ys, k, dTdz, n)
+            if y_m[n] > T_lim:
+                z0, y0 = zs[k], ys[k]
+                root = brentq(lambda z: tube.state_at(z0, y0, z)[n] - T_lim, z0, z_m,
+                              xtol=max(1e-12, 1e-10 * (z_m - z0)), rtol=1e-12, maxiter=100)
+                return root, tube.state_at(z0, y0, root)
+        except ReintegrationFailed:
+            tube.unresolved += 1
     if k_grid is None:
         return None
     return _refine(tube, zs, ys, k_grid, lambda z, y: y[n] - T_lim)
 
 
 def simulate(case, model=None, length=None):
+    """Solve the mole, energy and pressure balances along the tube (see :func:`_simulate`).
+
+    numpy's floating-point warnings are silenced inside: every non-finite number a run meets is
+    checked explicitly and turned into a failed run or a refused case with where and why.
+    """
+    with np.errstate(all="ignore"):
+        return _simulate(case, model, length)
+
+
+def _simulate(case, model=None, length=None):
     """Solve the mole, energy and pressure balances along the tube.
 
     Parameters
@@ -237,13 +428,20 @@ def simulate(case, model=None, length=None):
     zs = np.linspace(0.0, L, opts.output_points)
     atol = model.scale * opts.atol_scale
     tube = _Tube(model, opts.rtol, atol, opts.max_step, kernels.for_run())
-    ys, info = tube.run(model.y0, zs)
     notes = []
     status, termination = "completed", f"end of tube reached at z = {L:.6g} m"
     events = {}
-
-    ok = info["message"] == "Integration successful."
-    finite = np.all(np.isfinite(ys), axis=1)
+    refusal = _budget_refusal(case, L)
+    failure_where = why = None
+    if refusal is None:
+        ys, info = _integrate_budgeted(tube, model.y0, zs)
+        ok = info["message"] == SUCCESS
+        finite = np.all(np.isfinite(ys), axis=1)
+    else:
+        zs, ys, info, ok, finite = zs[:1], model.y0[None, :].copy(), {"nst": np.zeros(0)}, True, np.ones(1, bool)
+        status, termination = "failed", f"solver failed after z = 0 m of {L:.6g} m (not integrated): {refusal}"
+    main_steps, main_time = tube.nsteps, time.perf_counter() - started
+    tube.post_budget = _post_budget(main_steps)
     last_good = len(zs) - 1
     if not ok or not finite.all():
         # output k (k >= 1) is valid when the solver reached zs[k] (tcur[k-1] >= zs[k]); after a failure
@@ -266,16 +464,28 @@ def simulate(case, model=None, length=None):
         if last_good < len(tcur) and zs[last_good] <= tcur[last_good] <= zs[min(last_good + 1, len(zs) - 1)]:
             furthest = float(tcur[last_good])
         beyond = f"; the solver itself got to z = {furthest:.6g} m" if furthest > zs[last_good] else ""
-        termination = (f"solver failed after z = {zs[last_good]:.6g} m of {L:.6g} m (last output point: "
-                       f"T = {y[n]:.6g} K, P = {y[n + 1]:.6g} Pa{beyond}): {why}")
+        failure_where = (f"solver failed after z = {zs[last_good]:.6g} m of {L:.6g} m (last output point: "
+                         f"T = {y[n]:.6g} K, P = {y[n + 1]:.6g} Pa{beyond})")
+        termination = f"{failure_where}: {why}"
         zs, ys = zs[:last_good + 1], ys[:last_good + 1]
 
+    if status != "failed":
+        zs, ys, status, termination = _negative_flow_check(model, zs, ys, atol, status, termination)
     # fast dynamics between output points (a hot spot narrower than the output spacing): add the
     # solver's own steps there before looking for events
-    dTdz = tube.K.derivative_profile(zs, ys, *model.args)[:, n]
+    dTdz = _slopes(tube, zs, ys, n)
     zs, ys, refined = _resolve_fast_intervals(tube, zs, ys, dTdz, info, n)
     if refined:
-        dTdz = tube.K.derivative_profile(zs, ys, *model.args)[:, n]
+        dTdz = _slopes(tube, zs, ys, n)
+    if not np.all(np.isfinite(dTdz)):   # a state the balances cannot be evaluated at: never a result
+        bad = int(np.nonzero(~np.isfinite(dTdz))[0][0])
+        zs, ys, dTdz = zs[:max(bad, 1)], ys[:max(bad, 1)], dTdz[:max(bad, 1)]
+        if status != "failed":
+            status = "failed"
+            termination = (f"the balances are not finite at z = {zs[-1] if bad == 0 else zs[bad - 1]:.6g} m "
+                           "(overflow or division by zero in the rates or properties): check the kinetics, "
+                           "their units and the feed")
+        dTdz = np.where(np.isfinite(dTdz), dTdz, 0.0)
     T_lim = case.design.temperature_limit
     stops = []
     if not math.isnan(T_lim):
@@ -309,6 +519,11 @@ def simulate(case, model=None, length=None):
     # target conversion (recorded, the run continues)
     key = model.key_index
     F0k = model.y0[key]
+    if not F0k > 0 and status != "failed":
+        status = "failed"
+        termination = (f"design.key_species = {case.design.key_species!r} is not in the feed (or so dilute that "
+                       "its flow per tube underflows to zero): its conversion is not defined; choose a main "
+                       "reactant of the feed")
     X = (F0k - ys[:, key]) / F0k
     design = {"target_conversion": None, "reached": False, "length_m": None, "volume_m3": None,
               "catalyst_mass_kg": None}
@@ -325,26 +540,83 @@ def simulate(case, model=None, length=None):
 
     hot = _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit="temperature_limit" in events)
     Tc = ys[:, n + 2]
-    Z = compressibility_profile(model, ys, tube.K)
+    Z = _guarded(lambda: compressibility_profile(model, ys, tube.K), np.full(len(zs), np.nan))
     count = model.count
-    clos = closure(model, ys, tube.K)
+    clos = _guarded(lambda: closure(model, ys, tube.K), {"elements_relative": math.nan, "energy_relative": math.nan})
+    phase = _guarded(lambda: phase_failure(model, zs, ys, tube.K), None)
+    if phase and status == "failed":       # the likely cause of a solver failure, first, in plain words
+        termination = (f"{failure_where}: {phase}; the solver then stopped: {why}" if failure_where
+                       else f"{termination}; {phase}")
+    elif status != "failed":
+        defect = phase or closure_failure(clos)
+        if defect:
+            status, termination = "failed", f"run failed: {defect}"
     notes += closure_warnings(clos)
     notes += range_warnings(model, ys)
-    notes += model_warnings(model, ys, zs)
+    notes += model_warnings(model, ys, zs, hot)
     rise, rise_info = model.adiabatic
     elapsed = time.perf_counter() - started
     stats = {"method": "LSODA (scipy.integrate.odeint)",
              "kernel": "compiled (numba)" if tube.K is kernels.compiled else "plain Python (compiled cache cold)", "rtol": opts.rtol, "atol_scale": opts.atol_scale,
              "output_points": int(len(zs)), "rhs_evaluations": tube.nfev, "jacobian_evaluations": tube.njev,
-             "steps": tube.nsteps, "integrator_calls": tube.calls, "wall_time_s": round(elapsed, 4)}
+             "steps": tube.nsteps, "integrator_calls": tube.calls, "wall_time_s": round(elapsed, 4),
+             "steps_main_integration": main_steps, "step_budget": RUN_STEP_BUDGET, "post_processing_step_budget": _post_budget(main_steps)}
     return Result(
-        case=case, species=model.species.names, z=zs, F=ys[:, :n] * count, T=ys[:, n], P=ys[:, n + 1], Tc=Tc,
+        case=case, species=model.species.names, z=zs, F=np.maximum(ys[:, :n], 0.0) * count, T=ys[:, n], P=ys[:, n + 1], Tc=Tc,
         Q=ys[:, n + 3] * count, Z=Z, status=status, termination=termination, hot_spot=hot, design=design,
         closure=clos, warnings=tuple(notes), solver_stats=stats, versions=versions(),
         references=tuple(references_used(case, model, np.any(np.isfinite(Z)))), events=events, adiabatic_temperature_rise=rise,
         extra={"adiabatic": rise_info, "viscosity": model.viscosity_note,
+               "timing": {"main_integration_s": main_time, "total_s": elapsed},
                "critical_sources": dict(zip(model.species.names, model.critical_sources))},
     )
+
+
+def _slopes(tube, zs, ys, n):
+    """dT/dz at every profile point from the right-hand side; NaN where it cannot be evaluated."""
+    try:
+        return tube.K.derivative_profile(zs, ys, *tube.model.args)[:, n]
+    except ARITHMETIC_ERRORS:
+        out = np.full(len(zs), np.nan)
+        for k in range(len(zs)):
+            try:
+                out[k] = tube.derivative(zs[k], ys[k])[n]
+            except ARITHMETIC_ERRORS:
+                break
+        return out
+
+
+def _negative_flow_check(model, zs, ys, atol, status, termination):
+    """Fail the run where T is not positive, or a molar flow is more negative than the tolerance allows.
+
+    Tolerance: ten times the flow's absolute tolerance and never below 1e-9 of the feed flow
+    per tube. A flow below it is a wrong answer (a rate that kept consuming what is gone, or
+    an integration error), so the profile ends before it and the run is failed.
+    """
+    n = model.n
+    # only the part before the pressure floor counts: the run stops there (a pressure_floor event)
+    floor = np.nonzero(ys[:, n + 1] < PRESSURE_FLOOR * model.y0[n + 1])[0]
+    upto = int(floor[0]) + 1 if len(floor) else len(zs)
+    cold = np.nonzero(~(ys[:upto, n] > 0.0))[0]
+    if len(cold):
+        k = int(cold[0])
+        return zs[:max(k, 1)], ys[:max(k, 1)], "failed", (
+            f"temperature not positive at z = {zs[k]:.6g} m (T = {ys[k, n]:.6g} K): the state left every "
+            "range the model describes")
+    tol = np.maximum(10.0 * atol[:n], 1e-9 * model.y0[:n].sum())
+    if ys[:upto, :n].min() >= -tol.min():          # the usual case, without a per-point test
+        return zs, ys, status, termination
+    below = np.any(ys[:upto, :n] < -tol, axis=1)
+    if not below.any():
+        return zs, ys, status, termination
+    k = int(np.argmax(below))
+    worst = int(np.argmin(ys[k, :n] + tol))
+    name = model.species.names[worst]
+    reason = (f"molar flow of {name} negative ({ys[k, worst]:.3g} mol/s per tube, tolerance {tol[worst]:.2g}) at "
+              f"z = {zs[k]:.6g} m: the rates consumed more than was there; check the orders and rate "
+              "constants, or tighten [solver] rtol / atol_scale")
+    keep = max(k, 1)
+    return zs[:keep], ys[:keep], "failed", reason
 
 
 def _design_numbers(case, model, z):
@@ -375,11 +647,29 @@ def _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit):
                    if dTdz[-1] > 0 else "outlet")]
     idx = np.nonzero((dTdz[:-1] > 0) & (dTdz[1:] <= 0))[0]
     for k in sorted(idx, key=lambda k: -max(ys[k, n], ys[k + 1, n]))[:5]:
-        z_m, y_m = _locate_maximum(tube, zs, ys, int(k), dTdz, n)
-        candidates.append((float(y_m[n]), float(z_m), y_m, "event dT/dz = 0"))
+        try:
+            z_m, y_m = _locate_maximum(tube, zs, ys, int(k), dTdz, n)
+            candidates.append((float(y_m[n]), float(z_m), y_m, "event dT/dz = 0"))
+        except ReintegrationFailed:   # keep the highest state of the solver's own trajectory there
+            tube.unresolved += 1
+            j = int(k) if ys[k, n] >= ys[k + 1, n] else int(k) + 1
+            candidates.append((float(ys[j, n]), float(zs[j]), ys[j], "highest point of the solver's trajectory"))
     T_max, z_max, y_max, how = max(candidates, key=lambda c: c[0])
+    rise_medium = _rise_above_medium(case, y_max)
+    if case.heat.mode == "isothermal":
+        how = NO_HOT_SPOT_ISOTHERMAL
+    elif rise_medium is not None and rise_medium < 0:
+        how = f"{how}; {HEATED_NOT_HOT_SPOT}"
     return {"temperature_K": T_max, "position_m": z_max, "rise_above_feed_K": T_max - T0,
-            "rise_above_medium_K": _rise_above_medium(case, y_max), "located_by": how}
+            "rise_above_medium_K": rise_medium, "located_by": how}
+
+
+#: ``located_by`` texts where the highest temperature is not a reaction hot spot
+NO_HOT_SPOT_ISOTHERMAL = "no hot spot: isothermal tube (the temperature is held at the feed value)"
+HEATED_NOT_HOT_SPOT = ("the gas stays below the medium temperature there (a heated tube): the highest gas "
+                       "temperature, not a reaction hot spot")
+#: a hot spot closer to the inlet than this many particle diameters is flagged (common practice, no source)
+HOT_SPOT_INLET_PARTICLES = 5
 
 
 def _locate_maximum(tube, zs, ys, k, dTdz, n, tolerance=1e-6):
@@ -437,14 +727,72 @@ def _rise_above_medium(case, y):
     return float(y[n] - y[n + 2])
 
 
-def model_warnings(model, ys, zs):
+def _hot_spot_near_inlet(case, hot):
+    """Warning when a packed bed's hot spot lies within a few particle diameters of the inlet."""
+    if case.bed is None or hot.get("located_by") != "event dT/dz = 0":
+        return []
+    d_p = case.bed.particle_diameter
+    if hot["position_m"] >= HOT_SPOT_INLET_PARTICLES * d_p:
+        return []
+    return [f"the hot spot lies {hot['position_m'] / d_p:.2g} particle diameters from the inlet (z = "
+            f"{hot['position_m']:.3g} m): a one-dimensional pseudo-homogeneous model does not resolve the "
+            f"bed there (fewer than {HOT_SPOT_INLET_PARTICLES} particle diameters; common practice, no source); "
+            "its hot-spot temperature is indicative only"]
+
+
+#: share of the pressure drop above which the neglected acceleration term is flagged, [-]
+ACCELERATION_SHARE = 0.03
+
+
+def acceleration_pressure_drop(model, ys):
+    """Pressure drop the neglected acceleration term would add, G^2 (1/rho_out - 1/rho_in), [Pa].
+
+    The momentum balance integrated is dP/dz = -(friction); the full one has
+    -d(G^2/rho)/dz besides, with G the (constant) mass velocity. Its integral over the tube is
+    G^2 (1/rho_out - 1/rho_in), positive when the gas expands (heating, mole increase, pressure loss).
+    """
+    n = model.n
+    G = model.args[1][model_kernel.F_G]
+    crit = model.args[9]
+
+    def specific_volume(y):
+        F = np.clip(y[:n], 0.0, None)
+        Z = 1.0
+        if model.case.thermo.equation_of_state == "peng-robinson":
+            Z = model_kernel.pr_departure(y[n], y[n + 1], F / F.sum(), crit)[0]
+        return Z * R_GAS * y[n] * F.sum() / (y[n + 1] * float(F @ model.species.molar_mass))
+
+    return G * G * (specific_volume(ys[-1]) - specific_volume(ys[0]))
+
+
+def _acceleration_warning(model, ys):
+    """Warning when the neglected acceleration term exceeds ACCELERATION_SHARE of the pressure drop."""
+    if model.case.pressure_drop.model == "none" or len(ys) < 2:
+        return []
+    n = model.n
+    friction = ys[0, n + 1] - ys[-1, n + 1]
+    accel = acceleration_pressure_drop(model, ys)
+    if not (friction > 0 and abs(accel) > ACCELERATION_SHARE * friction):
+        return []
+    return [f"the acceleration term of the momentum balance (G^2 change of 1/rho, {accel:.3g} Pa) is "
+            f"{100 * accel / friction:.0f} % of the computed pressure drop ({friction:.3g} Pa) and is neglected: "
+            "the pressure drop is underestimated by about that much"]
+
+
+def model_warnings(model, ys, zs, hot=None):
     """Warnings about the physics of this run (not about the data ranges)."""
+    hot = hot or {}
     out = []
     n = model.n
-    if np.any(ys[:, :n] < -1e-9 * model.y0[:n].sum()):
-        worst = int(np.argmin(ys[:, :n].min(axis=0)))
-        out.append(f"molar flow of {model.species.names[worst]} went negative "
-                   f"({ys[:, worst].min():.3g} mol/s per tube); tighten [solver] rtol/atol_scale")
+    key = model.key_index
+    x_key = model.y0[key] / model.y0[:n].sum()
+    resolution = model.case.solver.atol_scale / x_key if x_key > 0 else math.inf
+    if resolution > 1e-4:
+        out.append(f"key species {model.species.names[key]} is dilute (feed mole fraction {x_key:.2g}): its "
+                   f"conversion is resolved only to about {resolution:.1g} (the solver's absolute tolerance); "
+                   "choose a main reactant as design.key_species or tighten [solver] atol_scale")
+    out += _hot_spot_near_inlet(model.case, hot)
+    out += _acceleration_warning(model, ys)
     if model.case.pressure_drop.model != "none":
         dp = ys[0, n + 1] - ys[-1, n + 1]
         if dp > 0.3 * ys[0, n + 1]:
@@ -462,6 +810,8 @@ def references_used(case, model, compressibility_computed=False):
         keys.append("mcbride2002")
     if any(r.form == "hougen-watson" for r in case.reactions):
         keys.append("hougen_watson1947")
+    if case.pressure_drop.model != "none" and math.isnan(case.pressure_drop.viscosity):
+        keys.append("wilke1950")
     if case.pressure_drop.model == "ergun":
         keys.append("ergun1952")
     elif case.pressure_drop.model == "pipe-friction":

@@ -40,11 +40,13 @@ def main():
         model = build_model(load_case_dict(raw))
         tube = _Tube(model, 1e-6, model.scale * 1e-10, 0.0, kernel=K)
         zs = np.linspace(0.0, 1.0, 11)
-        ys, _ = tube.run(model.y0, zs)
+        ys, _, _ = tube.run(model.y0, zs, mxstep=5000)
         K.derivative_profile(zs, ys, *model.args)
         n = model.n
         K.compressibility_profile(np.ascontiguousarray(ys[:, n]), np.ascontiguousarray(ys[:, n + 1]),
                                   np.ascontiguousarray(np.clip(ys[:, :n], 0, None)), model.args[9])
+        K.pr_phase_profile(np.ascontiguousarray(ys[:, n]), np.ascontiguousarray(ys[:, n + 1]),
+                           np.ascontiguousarray(np.clip(ys[:, :n], 0, None)), model.args[9])
     return 0
 
 

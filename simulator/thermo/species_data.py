@@ -9,6 +9,7 @@ Cantera works in kmol; this module converts to mol and nothing else sees kmol.
 """
 import difflib
 import functools
+import threading
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -16,6 +17,7 @@ import numpy as np
 
 from simulator.errors import ThermoError
 from simulator.thermo.nasa7 import constant_cp_coefficients
+from simulator.units import P_STANDARD
 
 _KMOL = 1000.0
 
@@ -28,10 +30,13 @@ class SpeciesData:
     ----------
     names : tuple of str
     molar_mass : ndarray, [kg/mol]
-    nasa7 : ndarray (n, 15), [-]
+    nasa7 : ndarray (n, 15), rows on the one standard state of the kernel, 1 atm
+        (:data:`simulator.units.P_STANDARD`), whatever the file declares, [-]
     t_min, t_max : ndarray, validity range of each species' data, [K]
     elements : tuple of dict, element counts (empty for custom species)
     sources : tuple of str, where each species' data came from
+    reference_pressures : tuple of float, the standard-state pressure each species' data were
+        given at (the file's ``reference-pressure``; 1 atm for custom species), [Pa]
     has_entropy : ndarray of bool (False for custom species without a standard entropy)
     """
 
@@ -44,6 +49,7 @@ class SpeciesData:
     sources: tuple
     has_entropy: np.ndarray
     species_path: str | None
+    reference_pressures: tuple = ()
 
 
 def cantera_data_file(name):
@@ -76,8 +82,22 @@ def species_in_file(path):
     try:
         return {sp.name: sp for sp in ct.Species.list_from_file(path)}
     except ct.CanteraError as err:
-        first = str(err).strip().splitlines()
-        raise ThermoError(f"cannot read species from {path}: {first[-1] if first else err}") from err
+        raise ThermoError(f"cannot read species from {path}: {cantera_message(err)}") from err
+
+
+def cantera_message(err):
+    """The first meaningful line of a Cantera error (not its rows of asterisks or the thrower's name).
+
+    Examples
+    --------
+    >>> cantera_message(RuntimeError("\\n****\\nCanteraError thrown by X:\\nMissing data for 'H2'.\\n****\\n"))
+    "Missing data for 'H2'."
+    """
+    for line in str(err).splitlines():
+        text = line.strip()
+        if text and text.strip("*") and not text.startswith("CanteraError thrown by"):
+            return text
+    return type(err).__name__
 
 
 def near(name, choices, n=5):
@@ -89,15 +109,46 @@ def near(name, choices, n=5):
     return matches
 
 
+def to_standard_pressure(row, reference_pressure):
+    r"""NASA-7 row moved from the standard state at ``reference_pressure`` to 1 atm.
+
+    Parameters
+    ----------
+    row : ndarray
+        NASA-7 coefficient row of 15 floats whose entropy refers to ``reference_pressure``, [-]
+    reference_pressure : float
+        Standard-state pressure of the row (a species file's ``reference-pressure``), [Pa]
+
+    Returns
+    -------
+    row : ndarray
+        The same row with the entropy constants a7 (both ranges) shifted so that s°/R refers
+        to :data:`simulator.units.P_STANDARD`, [-]
+
+    Notes
+    -----
+    An ideal gas's entropy depends on its standard-state pressure as
+    :math:`s^\circ(P_2) = s^\circ(P_1) - R \ln(P_2/P_1)`; enthalpy and heat capacity do not.
+    Equilibrium constants built from the shifted rows refer to 1 atm throughout, so data
+    files at 1 bar and at 1 atm can be mixed in one case.
+    """
+    out = np.array(row, dtype=float)
+    shift = float(np.log(P_STANDARD / reference_pressure))
+    out[7] -= shift
+    out[14] -= shift
+    return out
+
+
 def _row_from_cantera(sp, path):
     thermo = sp.thermo
     model = thermo.input_data.get("model", "")
     c = np.asarray(thermo.coeffs, dtype=float)
     if model == "NASA7":
-        return c.copy()
+        return to_standard_pressure(c, thermo.reference_pressure)
     if model == "constant-cp":
         T0, h0, s0, cp0 = c[:4]
-        return constant_cp_coefficients(cp0 / _KMOL, h0 / _KMOL, s0 / _KMOL, T0)
+        return to_standard_pressure(constant_cp_coefficients(cp0 / _KMOL, h0 / _KMOL, s0 / _KMOL, T0),
+                                    thermo.reference_pressure)
     raise ThermoError(f"species {sp.name!r} in {path} uses the thermo model {model!r}; "
                       "tubesim supports NASA7 and constant-cp species. Declare it under "
                       f"[thermo.custom.{sp.name}] or use a NASA7 data file.")
@@ -119,7 +170,7 @@ def build_species_data(names, thermo):
     """
     custom = {c.name: c for c in thermo.custom}
     in_file = species_in_file(thermo.species_path) if thermo.species_path else {}
-    mw, rows, tmin, tmax, elements, sources, has_s = [], [], [], [], [], [], []
+    mw, rows, tmin, tmax, elements, sources, has_s, p_ref = [], [], [], [], [], [], [], []
     for name in names:
         if name in custom:
             c = custom[name]
@@ -132,6 +183,7 @@ def build_species_data(names, thermo):
             elements.append({})
             sources.append("case file: constant cp (no stated range)")
             has_s.append(not np.isnan(entropy))
+            p_ref.append(P_STANDARD)
         else:
             sp = in_file[name]
             rows.append(_row_from_cantera(sp, thermo.species_path))
@@ -142,11 +194,12 @@ def build_species_data(names, thermo):
             model = sp.thermo.input_data.get("model", "")
             sources.append(f"{thermo.species_file} ({model})")
             has_s.append(True)
+            p_ref.append(float(sp.thermo.reference_pressure))
     return SpeciesData(
         names=tuple(names), molar_mass=np.array(mw), nasa7=np.array(rows).reshape(len(names), 15),
         t_min=np.array(tmin), t_max=np.array(tmax), elements=tuple(elements),
         sources=tuple(sources), has_entropy=np.array(has_s, dtype=bool),
-        species_path=thermo.species_path,
+        species_path=thermo.species_path, reference_pressures=tuple(p_ref),
     )
 
 
@@ -192,12 +245,63 @@ def cantera_solution(species, thermo, transport=False):
     try:
         return ct.Solution(yaml="\n".join(lines) + "\n")
     except ct.CanteraError as err:
-        last = str(err).strip().splitlines()
-        raise ThermoError(f"Cantera could not build the species set: {last[-1] if last else err}") from err
+        hint = ' (no transport data); give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"' if transport else ""
+        raise ThermoError(f"Cantera could not build the species set: {cantera_message(err)}{hint}") from err
 
 
 def _quote(text):
     return '"' + text.replace("\\", "\\\\").replace('"', '\\"') + '"'
+
+
+def viscosity_fits(species, thermo):
+    """Cantera's pure-species viscosity fits of the model's species, (n, 5), [-].
+
+    Row i holds a_i0..a_i4 of mu_i = sqrt(T) (sum_c a_ic (ln T)^c)^2 [Pa*s] (Cantera's
+    ``get_viscosity_polynomial``, fitted to its kinetic-theory viscosities). The Cantera
+    transport object is built once per species set and file (cached).
+
+    Raises ThermoError when a species has no transport data (custom species never do).
+    """
+    missing = [n for n in species.names if n in {c.name for c in thermo.custom}]
+    if missing:
+        raise ThermoError(f"no transport data for custom species {', '.join(missing)}; "
+                          'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"')
+    key = (species.species_path, tuple(species.names))
+    if key not in _VISCOSITY_FITS:
+        import cantera as ct
+
+        gas = _transport_solution(species, thermo)
+        try:
+            rows = [np.asarray(gas.get_viscosity_polynomial(gas.species_index(n)), dtype=float)
+                    for n in species.names]
+        except ct.CanteraError as err:
+            raise ThermoError(f"viscosity from transport data failed: {cantera_message(err)}; "
+                              'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"') from err
+        if any(len(r) != 5 for r in rows):
+            raise ThermoError("Cantera's viscosity fits are not of degree 4; give pressure_drop.viscosity")
+        if len(_VISCOSITY_FITS) > 32:
+            _VISCOSITY_FITS.clear()
+        _VISCOSITY_FITS[key] = np.array(rows)
+    return _VISCOSITY_FITS[key].copy()
+
+
+_VISCOSITY_FITS = {}
+_TRANSPORT = {}
+_TRANSPORT_LOCK = threading.Lock()
+
+
+def _transport_solution(species, thermo):
+    """A mixture-averaged transport Solution of the model's species, built once per species set.
+
+    Only for species sets without custom species (those have no transport data), so the key
+    (file, names) identifies it.
+    """
+    key = (species.species_path, tuple(species.names))
+    if key not in _TRANSPORT:
+        if len(_TRANSPORT) > 32:
+            _TRANSPORT.clear()
+        _TRANSPORT[key] = cantera_solution(species, thermo, transport=True)
+    return _TRANSPORT[key]
 
 
 def mixture_viscosity(species, thermo, temperature, pressure, mole_fractions):
@@ -212,11 +316,11 @@ def mixture_viscosity(species, thermo, temperature, pressure, mole_fractions):
         raise ThermoError(f"no transport data for custom species {', '.join(missing)}; "
                           'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"')
     try:
-        gas = cantera_solution(species, thermo, transport=True)
-        gas.TPX = temperature, pressure, np.clip(mole_fractions, 0.0, None)
-        return float(gas.viscosity)
+        with _TRANSPORT_LOCK:          # one shared Cantera object per species set: set and read together
+            gas = _transport_solution(species, thermo)
+            gas.TPX = temperature, pressure, np.clip(mole_fractions, 0.0, None)
+            return float(gas.viscosity)
     except ct.CanteraError as err:
-        last = str(err).strip().splitlines()
-        raise ThermoError(f"viscosity from transport data failed: {last[-1] if last else err}; "
+        raise ThermoError(f"viscosity from transport data failed: {cantera_message(err)}; "
                           'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"') from err
 
