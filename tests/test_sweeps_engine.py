@@ -90,6 +90,31 @@ class ClosedFormEvaluator:
                 "outlet_pressure_Pa": parse_quantity(raw["feed"]["pressure"], "pressure", "feed.pressure") - 1e4}
 
 
+class ClosedFormProbe:
+    """TEST STAND-IN FOR THE CASE LOADER: refuses T_c <= 0 K and a negative pre-exponential."""
+
+    def __init__(self):
+        self.loads = 0
+
+    def refusal(self, path, value):
+        self.loads += 1
+        if path == "heat.medium.temperature" and value <= 0:
+            return f"heat.medium.temperature = '{value!r} K': must be > 0."
+        if path == "reactions.0.pre_exponential" and value < 0:
+            return f"reactions.0.pre_exponential = '{value!r} 1/s': must be >= 0."
+        return None
+
+
+class RefusingEvaluator(ClosedFormEvaluator):
+    """The closed-form evaluator, refusing a negative pre-exponential as the case loader does."""
+
+    def __call__(self, raw, case_dir):
+        k = parse_quantity(raw["reactions"][0]["pre_exponential"], "1/s", "reactions.0.pre_exponential")
+        if k < 0:
+            raise CaseError(f"reactions.0.pre_exponential = {raw['reactions'][0]['pre_exponential']!r}: must be >= 0.")
+        return super().__call__(raw, case_dir)
+
+
 def _calls(log_dir, tag):
     lines = []
     for path in Path(log_dir).glob(f"{tag}-*.log"):
@@ -437,15 +462,41 @@ def test_parse_uncertainty_reports_every_problem():
         sampling.parse_uncertainty(raw["uncertainty"], raw)
     problems = info.value.problems
     assert len(problems) == 7
-    assert "uncertainty[0].std = '2 bar': wrong dimension" in problems[0]
-    assert "choose one of: normal, lognormal, uniform. Did you mean 'normal'?" in problems[1]
-    assert "uncertainty[2].factor = 0.5: a plain number > 1" in problems[2]
-    assert "uncertainty[3].high: missing" in problems[3]
+    # one-line style of the case loader: field path with dots, the value as written, what is accepted
+    assert problems[0] == ("uncertainty.0.std = '2 bar': the unit bar does not convert to the unit of "
+                           "heat.medium.temperature ('600 K'); expected a temperature difference, "
+                           'e.g. "2 K" or "2 delta_degC"')
+    assert "choose one of: normal, lognormal, uniform, truncated-normal. Did you mean 'normal'?" in problems[1]
+    assert "uncertainty.2.factor = 0.5: a plain number > 1" in problems[2]
+    assert "uncertainty.3.high: missing" in problems[3]
     assert "temperature difference" in problems[4]
     assert "whole-number field" in problems[5]
-    assert "uncertainty[6].sdt: unknown key" in problems[6] and "Did you mean 'std'?" in problems[6]
-    with pytest.raises(CaseError, match=r"uncertainty\[0\]\.std = '2 bar': wrong dimension"):
+    assert "uncertainty.6.sdt: unknown key" in problems[6] and "Did you mean 'std'?" in problems[6]
+    assert not any("[" in line for line in problems)         # no raw pint dimensions, no [0] indices
+    with pytest.raises(CaseError, match=r"^uncertainty\.0\.std = '2 bar': the unit bar"):
         sampling.parse_uncertainty(raw["uncertainty"][:1], raw)
+
+
+def test_uncertainty_unit_errors_name_the_unit_of_a_composite_field_in_words():
+    # before: "wrong dimension ([mass] * [length] ** 2 / ...); expected dimension 1 / [time]"
+    raw = _uncertain_case([
+        {"parameter": "reactions.0.pre_exponential", "distribution": "uniform", "low": "1 kJ/mol", "high": 2e7},
+        {"parameter": "reactions.0.activation_energy", "distribution": "truncated-normal", "std": "2 kJ/mol",
+         "low": "90 kJ/mol", "factor": 2},
+    ])
+    with pytest.raises(CaseError) as info:
+        sampling.parse_uncertainty(raw["uncertainty"], raw)
+    problems = info.value.problems
+    assert problems[0] == ("uncertainty.0.low = '1 kJ/mol': the unit kJ / mol does not convert to the unit of "
+                           "reactions.0.pre_exponential ('1e7 1/s'); expected units that convert to 1/s, "
+                           'e.g. "1 1/s"')
+    assert problems[1].startswith("uncertainty.1.factor = 2: not used by a truncated-normal distribution; "
+                                  "it takes std, low, high")
+    raw["uncertainty"] = raw["uncertainty"][1:]
+    del raw["uncertainty"][0]["factor"]
+    with pytest.raises(CaseError, match=r"^uncertainty\.0: the case value reactions\.0\.activation_energy = "
+                                        r"'80 kJ/mol' must lie between low and high"):
+        sampling.parse_uncertainty(raw["uncertainty"], raw)
 
 
 def test_normal_and_lognormal_samples_follow_their_definitions():
@@ -504,7 +555,8 @@ def test_monte_carlo_known_answer_and_resume_with_recorded_seed(tmp_path):
         {"parameter": "reactions.0.activation_energy", "distribution": "normal", "std": "2 kJ/mol"},
     ])
     out = tmp_path / "mc"
-    result = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(tmp_path, "mc"), out, 200, progress=False)
+    result = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(tmp_path, "mc"), out, 200, progress=False,
+                             probe=ClosedFormProbe())
     p = result["probability_exceeding_limit"]
     lo, hi = p["interval"]
     assert lo < 0.25 < hi and hi - lo < 0.15
@@ -521,15 +573,17 @@ def test_monte_carlo_known_answer_and_resume_with_recorded_seed(tmp_path):
     assert ResultsStore.read_meta(out / "results.sqlite")["seed"] == seed
     assert (out / "uncertainty.json").exists() and (out / "results.csv").exists()
     # rerun without a seed: the stored seed is reused, nothing is recomputed
-    again = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(tmp_path, "mc-again"), out, 200, progress=False)
+    again = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(tmp_path, "mc-again"), out, 200, progress=False,
+                            probe=ClosedFormProbe())
     assert again["samples"]["seed"] == seed and again["run"]["computed"] == 0
     assert again["probability_exceeding_limit"] == p and _calls(tmp_path, "mc-again") == []
     with pytest.raises(ResumeError, match=r"meta seed"):
-        run_uncertainty(raw, tmp_path, ClosedFormEvaluator(), out, 200, seed=seed + 1, progress=False)
+        run_uncertainty(raw, tmp_path, ClosedFormEvaluator(), out, 200, seed=seed + 1, progress=False,
+                        probe=ClosedFormProbe())
     # Sobol' design through an executor passed in (threads here): same known answer
     with cf.ThreadPoolExecutor(2) as pool:
         sob = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(), tmp_path / "sobol", 256, seed=3,
-                              method="sobol", executor=pool, progress=False)
+                              method="sobol", executor=pool, progress=False, probe=ClosedFormProbe())
     lo, hi = sob["probability_exceeding_limit"]["interval"]
     assert lo < 0.25 < hi
     assert sob["probability_exceeding_limit"]["estimate"] == pytest.approx(0.25, abs=0.02)
@@ -583,6 +637,9 @@ def test_progress_plain_lines_and_terminal_bar():
     assert "\rcases  [##########----------]   50/100   50%  25 cases/s  left 0:00:02" in tty.text
     assert tty.text.endswith("\n")
     assert format_duration(None) == "?"
+    fresh = _Stream(tty=False)              # a new run says so at once, before the first case finishes
+    Progress(stream=fresh, clock=clock).start(20000)
+    assert fresh.text == "cases: starting, 20000 to run\n"
 
 
 # -- Dask on loopback (kept last: it starts threads in this process) ---------------------------------------

@@ -45,6 +45,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from simulator.errors import CaseError, SimulatorError
+from simulator.sweeps.lock import folder_lock
 from simulator.sweeps.paths import apply_values, check_vary, get_path, grid, parse_vary, VarySpec
 from simulator.sweeps.progress import Progress
 from simulator.sweeps.store import RESULT_FIELDS, ResultsStore
@@ -166,11 +167,15 @@ def evaluate_case(evaluator, base_raw, case_dir, case_id, values):
     Returns
     -------
     dict
-        ``case_id``, the values and the result fields; ``status = "failed"`` with the
-        reason in ``error`` if anything raised.
+        ``case_id``, the values and the result fields; ``status = "invalid"`` with the
+        loader's reason if the case refuses the values (:class:`CaseError`),
+        ``status = "failed"`` with the reason in ``error`` if anything else raised.
     """
     try:
         row = _normalised(evaluator(apply_values(base_raw, values), case_dir))
+    except CaseError as err:  # the case refuses these values: an invalid sample, not a failed run
+        row = {name: None for name in RESULT_FIELDS}
+        row.update(status="invalid", error=one_line_error(err))
     except Exception as err:  # noqa: BLE001 - any failure of one case is recorded, not raised
         row = {name: None for name in RESULT_FIELDS}
         row.update(status="failed", error=one_line_error(err))
@@ -491,7 +496,8 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
     """Full grid over one or more case parameters: ``tubesim sweep CASE --vary ... --out DIR``.
 
     Writes ``DIR/results.sqlite`` as cases finish and ``DIR/results.csv`` at the end.
-    Rerunning with the same ``out_dir`` and options resumes.
+    Rerunning with the same ``out_dir`` and options resumes. The folder is locked while
+    the run writes (:func:`~simulator.sweeps.lock.folder_lock`).
 
     Parameters
     ----------
@@ -521,7 +527,7 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
     cases = grid(specs)
     out_dir = Path(out_dir)
     meta = grid_meta(base_raw, specs, cases)
-    with ResultsStore(out_dir / "results.sqlite", [s.path for s in specs], meta) as store:
+    with folder_lock(out_dir, "sweep"), ResultsStore(out_dir / "results.sqlite", [s.path for s in specs], meta) as store:
         summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
                             scheduler=scheduler, batch_size=batch_size, progress=progress)
         store.export_csv(out_dir / "results.csv")
@@ -530,12 +536,17 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
 
 def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=None, method="lhs",
                     temperature_limit=None, confidence=0.95, interval="clopper-pearson",
-                    executor=None, scheduler=None, batch_size=None, progress=True):
+                    executor=None, scheduler=None, batch_size=None, progress=True,
+                    engine="pool", model=None, probe=None, source_path=""):
     """Monte Carlo over the case's ``[[uncertainty]]`` entries: ``tubesim uncertainty``.
 
+    Before any case runs, every distribution is checked against the values the case
+    accepts (:func:`simulator.sweeps.uncertain_ranges.checked_against_loader`): more
+    than 0.1 % of its mass outside is refused; truncated normals are cut to that range.
     Writes ``DIR/results.sqlite`` as cases finish, ``DIR/results.csv`` and
-    ``DIR/uncertainty.json`` at the end. Without ``seed``, a resumed run reuses the
-    stored seed and a new run draws one; the seed is recorded either way.
+    ``DIR/uncertainty.json`` at the end; the folder is locked meanwhile. Without
+    ``seed``, a resumed run reuses the stored seed and a new run draws one; the seed is
+    recorded either way.
 
     Parameters
     ----------
@@ -544,7 +555,7 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     case_dir : str or Path
         Folder of the case file.
     evaluator : callable
-        Picklable ``evaluator(raw_case, case_dir) -> dict``.
+        Picklable ``evaluator(raw_case, case_dir) -> dict`` (the pool engine).
     out_dir : str or Path
         Output folder.
     n_samples : int
@@ -560,47 +571,76 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     interval : {"clopper-pearson", "wilson"}
         Binomial confidence interval.
     executor, scheduler, batch_size, progress
-        As :func:`run_cases`.
+        As :func:`run_cases` (pool engine).
+    engine : {"pool", "compiled"}
+        ``"compiled"``: the samples run through the compiled batch integrator
+        (:func:`simulator.sweeps.compiled_sweep.run_compiled_cases`, the path of
+        ``tubesim sweep``); needs ``model``.
+    model : simulator.model.build.Model, optional
+        Base model, for the compiled engine.
+    probe : object, optional
+        ``refusal(path, value) -> None or reason``; default the case loader
+        (:class:`simulator.sweeps.validity.CaseProbe`).
+    source_path : str
+        Case file, for messages.
 
     Returns
     -------
     dict
-        The content written to ``uncertainty.json``.
+        The content written to ``uncertainty.json`` (with ``engine``).
     """
     from simulator.fileio import atomic_write_json
     from simulator.sweeps import sampling
+    from simulator.sweeps.uncertain_ranges import checked_against_loader
+    from simulator.sweeps.validity import CaseProbe
 
+    if engine not in ("pool", "compiled"):
+        raise ValueError(f"engine = {engine!r}: choose pool or compiled")
+    if engine == "compiled" and model is None:
+        raise ValueError("engine = 'compiled' needs the base model")
     specs = sampling.parse_uncertainty(base_raw.get("uncertainty"), base_raw)
     if temperature_limit is None:
         text = get_path(base_raw, "design.temperature_limit")
         temperature_limit = parse_quantity(text, "temperature", "design.temperature_limit")
+    base = sampling.base_values(specs, base_raw)
+    probe = probe if probe is not None else CaseProbe(base_raw, str(case_dir), str(source_path))
+    specs, ranges = checked_against_loader(specs, base, base_raw, probe)
     out_dir = Path(out_dir)
     db = out_dir / "results.sqlite"
-    if seed is None:
-        seed = ResultsStore.read_meta(db).get("seed")
+    with folder_lock(out_dir, "uncertainty"):
         if seed is None:
-            seed = sampling.fresh_seed()
-    base = sampling.base_values(specs, base_raw)
-    samples = sampling.sample(specs, base, n_samples, seed, method=method)
-    paths = [s.parameter for s in specs]
-    cases = [(i, dict(zip(paths, (float(v) for v in samples[i])))) for i in range(samples.shape[0])]
-    meta = {
-        "command": "uncertainty",
-        "tubesim_version": _tool_version(),
-        "seed": int(seed),
-        "method": method,
-        "n_samples": int(n_samples),
-        "distributions": [s.describe() for s in specs],
-        "case_sha256": fingerprint(base_raw),
-        "plan_sha256": fingerprint(cases),
-    }
-    with ResultsStore(db, paths, meta) as store:
-        summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
-                            scheduler=scheduler, batch_size=batch_size, progress=progress)
-        store.export_csv(out_dir / "results.csv")
-        result = sampling.summarize(store.rows(), specs, temperature_limit, seed=int(seed), method=method,
-                                    confidence=confidence, interval=interval)
-    result["run"] = {"skipped": summary.skipped, "computed": summary.computed,
-                     "elapsed_s": round(summary.elapsed, 3)}
-    atomic_write_json(out_dir / "uncertainty.json", result)
+            seed = ResultsStore.read_meta(db).get("seed")
+            if seed is None:
+                seed = sampling.fresh_seed()
+        samples = sampling.sample(specs, base, n_samples, seed, method=method)
+        paths = [s.parameter for s in specs]
+        cases = [(i, dict(zip(paths, (float(v) for v in samples[i])))) for i in range(samples.shape[0])]
+        meta = {
+            "command": "uncertainty",
+            "tubesim_version": _tool_version(),
+            "seed": int(seed),
+            "method": method,
+            "n_samples": int(n_samples),
+            "distributions": [s.describe() for s in specs],
+            "case_sha256": fingerprint(base_raw),
+            "plan_sha256": fingerprint(cases),
+        }
+        with ResultsStore(db, paths, meta) as store:
+            if engine == "compiled":
+                from simulator.sweeps.compiled_sweep import run_compiled_cases
+
+                summary = run_compiled_cases(case_dir, cases, paths, model, store, progress=bool(progress),
+                                             label="samples")
+            else:
+                summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
+                                    scheduler=scheduler, batch_size=batch_size, progress=progress)
+            store.export_csv(out_dir / "results.csv")
+            result = sampling.summarize(store.rows(), specs, temperature_limit, seed=int(seed), method=method,
+                                        confidence=confidence, interval=interval, ranges=ranges)
+        result["engine"] = engine
+        result["run"] = {"skipped": summary.skipped, "computed": summary.computed,
+                         "elapsed_s": round(summary.elapsed, 3), "workers": summary.workers,
+                         "cases_per_second": round(summary.computed / summary.elapsed, 1)
+                         if summary.computed and summary.elapsed > 0 else None}
+        atomic_write_json(out_dir / "uncertainty.json", result)
     return result
