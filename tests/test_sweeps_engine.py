@@ -589,6 +589,153 @@ def test_monte_carlo_known_answer_and_resume_with_recorded_seed(tmp_path):
     assert sob["probability_exceeding_limit"]["estimate"] == pytest.approx(0.25, abs=0.02)
 
 
+# -- truncated normal, refused distributions, invalid samples, bookkeeping ------------------------------
+def test_truncated_normal_samples_follow_the_closed_form_cdf():
+    # Analytic: the CDF of N(mu, sigma) cut to [a, b] is (Phi(z) - Phi(alpha)) / (Phi(beta) - Phi(alpha)),
+    # z = (x - mu)/sigma, written out here with the standard normal CDF (scipy.special.ndtr), not truncnorm.
+    # Inverse-CDF mapping of a Latin hypercube puts one sample in each 1/n stratum of that CDF,
+    # so the Kolmogorov-Smirnov distance is at most 1/n (a property of the design, no sampling error).
+    from scipy.special import ndtr
+    from scipy.stats import norm
+
+    from simulator.sweeps.uncertain_ranges import checked_against_loader
+
+    raw = _uncertain_case([
+        {"parameter": "reactions.0.pre_exponential", "distribution": "truncated-normal", "std": "1.2e7 1/s"},
+        {"parameter": "heat.medium.temperature", "distribution": "truncated-normal", "std": "30 K",
+         "low": "590 K", "high": "650 K"},
+    ])
+    specs = sampling.parse_uncertainty(raw["uncertainty"], raw)
+    base = sampling.base_values(specs, raw)
+    specs, ranges = checked_against_loader(specs, base, raw, ClosedFormProbe())
+    assert specs[0].low == pytest.approx(0.0, abs=1e7 * 1e-6) and specs[0].high == math.inf  # the accepted range
+    assert ranges["reactions.0.pre_exponential"]["share_outside"] < 1e-6
+    n = 4000
+    x = sampling.sample(specs, base, n, seed=3)
+    for j, (mu, sigma) in enumerate([(1e7, 1.2e7), (600.0, 30.0)]):
+        a, b = specs[j].low, specs[j].high
+        alpha, beta = (a - mu) / sigma, (b - mu) / sigma
+
+        def cdf(v):
+            return (ndtr((v - mu) / sigma) - ndtr(alpha)) / (ndtr(beta) - ndtr(alpha))
+
+        v = np.sort(x[:, j])
+        assert v[0] >= a and v[-1] <= b
+        F = cdf(v)
+        ks = max(np.max(np.arange(1, n + 1) / n - F), np.max(F - np.arange(n) / n))
+        assert ks <= 1.0 / n + 1e-9
+        # mean of a truncated normal: mu + sigma (phi(alpha) - phi(beta)) / (Phi(beta) - Phi(alpha))
+        mean = mu + sigma * (norm.pdf(alpha) - norm.pdf(beta)) / (ndtr(beta) - ndtr(alpha))
+        assert v.mean() == pytest.approx(mean, rel=1e-3)
+
+
+def test_a_distribution_with_much_mass_where_the_case_is_refused_is_refused():
+    # before: the negative draws ran, failed and were silently left out of P(exceed)
+    from simulator.sweeps.uncertain_ranges import checked_against_loader
+
+    raw = _uncertain_case([{"parameter": "reactions.0.pre_exponential", "distribution": "normal", "std": "1e7 1/s"}])
+    specs = sampling.parse_uncertainty(raw["uncertainty"], raw)
+    with pytest.raises(CaseError) as info:
+        checked_against_loader(specs, sampling.base_values(specs, raw), raw, ClosedFormProbe())
+    (line,) = info.value.problems
+    # share below 0 of N(1e7, 1e7) is Phi(-1) = 15.87 % (analytic)
+    assert line.startswith("uncertainty.0: a normal distribution of reactions.0.pre_exponential (std = '1e7 1/s') "
+                           "puts 15.9 % of its samples where the case is refused (below 0 1/s: must be >= 0)")
+    assert "at most 0.1 % is accepted" in line and '"lognormal"' in line and '"truncated-normal"' in line
+
+
+def test_invalid_samples_are_counted_and_the_probability_states_its_denominator(tmp_path):
+    # N(1e7, 3.2e6): Phi(-3.125) = 0.089 % below 0, under the 0.1 % limit, so the run goes ahead.
+    # A Latin hypercube of n = 5000 has exactly floor or ceil of 5000 * 0.00089 = 4.45 samples there.
+    raw = _uncertain_case([
+        {"parameter": "heat.medium.temperature", "distribution": "uniform", "low": "600 K", "high": "700 K"},
+        {"parameter": "reactions.0.pre_exponential", "distribution": "normal", "std": "3.2e6 1/s"},
+    ])
+    out = tmp_path / "mc"
+    result = run_uncertainty(raw, tmp_path, RefusingEvaluator(), out, 5000, seed=2, progress=False,
+                             probe=ClosedFormProbe(), batch_size=500)
+    s, p = result["samples"], result["probability_exceeding_limit"]
+    assert s["invalid"] in (4, 5) and s["failed"] == 0 and s["valid"] == 5000 - s["invalid"]
+    assert s["invalid_reasons"] == [{"reason": "reactions.0.pre_exponential below 0 1/s", "count": s["invalid"]}]
+    assert p["denominator"] == p["n"] == 5000 - s["invalid"]
+    assert p["left_out"] == {"invalid": s["invalid"], "failed": 0, "stopped_below_limit": 0, "without_hot_spot": 0}
+    # the invalid rows are stored as such, with the loader's reason, not as failed runs
+    with ResultsStore(out / "results.sqlite", ["heat.medium.temperature", "reactions.0.pre_exponential"]) as store:
+        invalid = [r for r in store.rows() if r["status"] == "invalid"]
+    assert len(invalid) == s["invalid"] and all(r["reactions.0.pre_exponential"] < 0 for r in invalid)
+    assert all(r["error"].startswith("CaseError: reactions.0.pre_exponential") for r in invalid)
+    text = sampling.format_summary(result)
+    assert f"left out: {s['invalid']} invalid" in text and f"/{p['denominator']} " in text
+
+
+def _row(status, hot, cid):
+    return {"case_id": cid, "status": status, "hot_spot_temperature_K": hot, "outlet_conversion": 0.5,
+            "heat.medium.temperature": 600.0 + cid, "error": None}
+
+
+def test_summary_counts_every_status_and_stopped_runs_exceed():
+    # bookkeeping rule (EXCEEDANCE_RULE): stopped at the guard above the limit -> exceeding;
+    # failed, stopped below the limit and invalid -> left out, counted, and bracketed
+    rows = ([_row("completed", 700.0, i) for i in range(6)] + [_row("completed", 760.0, 6)]
+            + [_row("stopped", 1900.0, 7), _row("stopped", 1900.0, 8)]       # runaway guard
+            + [_row("stopped", 720.0, 9)]                                     # pressure floor, below the limit
+            + [_row("failed", None, 10), _row("invalid", None, 11)])
+    specs = sampling.parse_uncertainty([{"parameter": "heat.medium.temperature", "distribution": "normal",
+                                         "std": "2 K"}], BASE_CASE)
+    result = sampling.summarize(rows, specs, 750.0, seed=1, method="lhs")
+    p, s = result["probability_exceeding_limit"], result["samples"]
+    assert (p["exceeding"], p["denominator"], p["estimate"]) == (3, 9, 3 / 9)
+    assert p["denominator_counts"] == {"completed": 7, "stopped_at_guard_counted_exceeding": 2}
+    assert p["left_out"] == {"invalid": 1, "failed": 1, "stopped_below_limit": 1, "without_hot_spot": 0}
+    assert p["if_left_out_exceeded"] == [3 / 11, 5 / 11]
+    assert (s["n"], s["valid"], s["invalid"], s["failed"], s["stopped"], s["completed"]) == (12, 11, 1, 1, 3, 7)
+    assert result["percentiles"]["hot_spot_temperature_K"]["p50"] == 700.0   # over the 9 runs of the denominator
+
+
+# -- --vary values checked as an array -------------------------------------------------------------------
+def test_twenty_thousand_values_are_classified_with_a_few_loads():
+    # before: one case load per value (20 000 loads, about a minute); now the ends, nine interior
+    # values, the one nearest zero and a bisection for each refused side
+    from simulator.sweeps.validity import refused_values
+
+    probe = ClosedFormProbe()
+    values = list(np.linspace(-10.0, 460.0, 20000))
+    refused, reasons = refused_values(probe, "heat.medium.temperature", values)
+    assert list(refused) == [i for i, v in enumerate(values) if v <= 0]
+    assert probe.loads <= 30
+    assert set(reasons) <= set(refused.tolist()) and reasons[0].endswith("must be > 0.")
+    probe = ClosedFormProbe()
+    refused, reasons = refused_values(probe, "heat.medium.temperature", list(np.linspace(300.0, 460.0, 20000)))
+    assert refused.size == 0 and reasons == {} and probe.loads == 11
+
+
+# -- one run per output folder ----------------------------------------------------------------------
+def test_a_second_run_into_the_same_folder_is_refused_while_the_first_runs(tmp_path):
+    # before: the second run inserted the same case ids and died with sqlite3.IntegrityError
+    from simulator.sweeps.lock import LOCK_NAME, FolderInUseError, folder_lock
+
+    holder = subprocess.Popen([sys.executable, "-c", "import time; time.sleep(60)"])
+    try:
+        (tmp_path / "out").mkdir()
+        (tmp_path / "out" / LOCK_NAME).write_text(
+            f'{{"pid": {holder.pid}, "host": "{__import__("socket").gethostname()}", "command": "sweep"}}')
+        with pytest.raises(FolderInUseError, match=rf"in use by process {holder.pid} \(sweep"):
+            run_grid_sweep(BASE_CASE, tmp_path, ["heat.medium.temperature=600 K..700 K in 3"],
+                           ClosedFormEvaluator(), tmp_path / "out", progress=False)
+        assert not (tmp_path / "out" / "results.sqlite").exists()
+    finally:
+        holder.kill()
+        holder.wait()
+    # the holder is gone: its lock is stale and is taken over; released at the end
+    summary = run_grid_sweep(BASE_CASE, tmp_path, ["heat.medium.temperature=600 K..700 K in 3"],
+                             ClosedFormEvaluator(), tmp_path / "out", progress=False)
+    assert summary.computed == 3 and not (tmp_path / "out" / LOCK_NAME).exists()
+    with folder_lock(tmp_path / "out"):
+        with pytest.raises(FolderInUseError, match=rf"in use by process {os.getpid()}"):
+            with folder_lock(tmp_path / "out"):
+                pass
+
+
 # -- progress ------------------------------------------------------------------------------------------
 class _FakeClock:
     def __init__(self):

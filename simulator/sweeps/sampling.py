@@ -237,7 +237,7 @@ def _given(value, dim, where, path, current, difference=False):
             raise CaseError(f"{where} = {value!r}: {path} is a plain number in the case ({current!r}); "
                             "give a plain number")
         return float(value)
-    unit = _unit_of(current)
+    unit = unit_part(current)
     example = "2 K" if difference and dim == "[temperature]" else f"1 {unit}"
     if not isinstance(value, str):
         raise CaseError(f"{where} = {value!r}: needs a unit; write it as text in units of {path} "
@@ -253,7 +253,7 @@ def _given(value, dim, where, path, current, difference=False):
     return parse_quantity(value, dim, where)
 
 
-def _unit_of(text):
+def unit_part(text):
     """Unit part of a case value such as ``"4.0e5 mol/(kg*s*bar^1.5)"`` -> ``"mol/(kg*s*bar^1.5)"``."""
     parts = str(text).strip().split(None, 1)
     return parts[1] if len(parts) == 2 else str(text)
@@ -593,6 +593,40 @@ EXCEEDANCE_RULE = (
     "'if_left_out_exceeded' gives the probability if none / all of the failed and undetermined runs exceeded.")
 
 
+def _hot(row):
+    value = row["hot_spot_temperature_K"]
+    return value if value is not None and math.isfinite(value) else None
+
+
+def split_for_exceedance(rows, limit):
+    """Rows by how they enter the exceedance probability (:data:`EXCEEDANCE_RULE`).
+
+    Parameters
+    ----------
+    rows : list of dict
+        Stored rows.
+    limit : float
+        Design temperature limit, [K]
+
+    Returns
+    -------
+    dict
+        ``completed`` (with a hot spot), ``stopped_over`` (stopped at or above the limit:
+        exceeding), ``invalid``, ``failed``, ``stopped_under``, ``without_hot_spot``:
+        lists of rows. The first two make the denominator.
+    """
+    parts = {k: [] for k in ("completed", "stopped_over", "invalid", "failed", "stopped_under", "without_hot_spot")}
+    for r in rows:
+        status, hot = r["status"], _hot(r)
+        if status in ("invalid", "failed"):
+            parts[status].append(r)
+        elif status == "stopped":
+            parts["stopped_over" if hot is not None and hot >= limit else "stopped_under"].append(r)
+        else:
+            parts["completed" if hot is not None else "without_hot_spot"].append(r)
+    return parts
+
+
 def _invalid_reasons(rows, ranges):
     from simulator.sweeps.uncertain_ranges import outside
 
@@ -646,35 +680,30 @@ def summarize(rows, specs, limit, seed, method, confidence=0.95, interval="clopp
     dict
         JSON-ready (no NaN).
     """
-    def hot(r):
-        v = r["hot_spot_temperature_K"]
-        return v if v is not None and math.isfinite(v) else None
-
-    invalid = [r for r in rows if r["status"] == "invalid"]
-    failed = [r for r in rows if r["status"] == "failed"]
-    stopped = [r for r in rows if r["status"] == "stopped"]
-    completed = [r for r in rows if r["status"] not in ("invalid", "failed", "stopped")]
-    stopped_over = [r for r in stopped if hot(r) is not None and hot(r) >= limit]
-    stopped_under = [r for r in stopped if hot(r) is None or hot(r) < limit]
-    with_hot = [r for r in completed if hot(r) is not None]
+    parts = split_for_exceedance(rows, limit)
+    invalid, failed = parts["invalid"], parts["failed"]
+    with_hot, stopped_over, stopped_under = parts["completed"], parts["stopped_over"], parts["stopped_under"]
+    stopped = stopped_over + stopped_under
+    completed = with_hot + parts["without_hot_spot"]
     ran = completed + stopped
+    hot = _hot
     status_counts = {}
     for r in rows:
         status_counts[r["status"]] = status_counts.get(r["status"], 0) + 1
-    hot_completed = [hot(r) for r in with_hot]
-    probability = exceedance_probability(hot_completed, limit, confidence, interval, exceeding_extra=len(stopped_over))
+    probability = exceedance_probability([hot(r) for r in with_hot], limit, confidence, interval,
+                                         exceeding_extra=len(stopped_over))
     k, n = probability["exceeding"], probability["n"]
-    undetermined = len(failed) + len(stopped_under) + len(completed) - len(with_hot)
+    undetermined = len(failed) + len(stopped_under) + len(parts["without_hot_spot"])
     total = n + undetermined
     probability.update({
         "denominator": n,
         "denominator_counts": {"completed": len(with_hot), "stopped_at_guard_counted_exceeding": len(stopped_over)},
         "left_out": {"invalid": len(invalid), "failed": len(failed), "stopped_below_limit": len(stopped_under),
-                     "without_hot_spot": len(completed) - len(with_hot)},
+                     "without_hot_spot": len(parts["without_hot_spot"])},
         "if_left_out_exceeded": [k / total, (k + undetermined) / total] if total else None,
         "rule": EXCEEDANCE_RULE,
     })
-    usable = with_hot + [r for r in stopped if hot(r) is not None]
+    usable = with_hot + stopped_over               # the runs of the denominator
     hot_usable = [hot(r) for r in usable]
     return {
         "samples": {
@@ -694,8 +723,9 @@ def summarize(rows, specs, limit, seed, method, confidence=0.95, interval="clopp
         "percentiles": {
             "hot_spot_temperature_K": percentiles(hot_usable),
             "outlet_conversion": percentiles([r["outlet_conversion"] for r in ran]),
-            "method": "linear interpolation between order statistics (numpy default); runs stopped at the "
-                      "runaway guard enter with their stop temperature, a lower bound of their hot spot",
+            "method": "linear interpolation between order statistics (numpy default) over the runs of the "
+                      "probability's denominator; runs stopped at the runaway guard enter with their stop "
+                      "temperature, a lower bound of their hot spot",
         },
         "rank_correlation_with_hot_spot": rank_correlations(
             {s.parameter: [r[s.parameter] for r in usable] for s in specs}, hot_usable),
@@ -739,8 +769,8 @@ def format_summary(result):
             lines.append(f"  with the failed or undetermined runs counted as not exceeding / exceeding: "
                          f"{bracket[0]:.4f} / {bracket[1]:.4f}")
         if left["invalid"]:
-            lines.append(f"  conditional on a valid case: {left['invalid']} sampled value sets are outside what the "
-                         "case accepts")
+            lines.append(f"  conditional on a valid case: {left['invalid']} of {s['n']} samples lie outside what the "
+                         "case accepts and are left out")
     pct = result["percentiles"]["hot_spot_temperature_K"]
     lines.append("hot spot p5/p50/p95: " + (", ".join(f"{k} {v:.2f} K" for k, v in pct.items() if v is not None)
                                             or "none (no run gave a hot spot)"))

@@ -37,8 +37,23 @@ def _far_ends(dist):
     return low, high
 
 
-def _bound_text(value, si_unit):
-    return "none" if not math.isfinite(value) else f"{value:.6g}{' ' + si_unit if si_unit else ''}"
+def _bound_text(value, current, spread):
+    """An accepted bound in the unit the case writes (``"0 mol/(kg*s*bar^1.5)"``), rounded to 1e-4 spread."""
+    if not math.isfinite(value):
+        return "none"
+    if spread > 0:
+        value = round(value / (1e-4 * spread)) * 1e-4 * spread
+    if not isinstance(current, str):
+        return f"{value:.6g}"
+    from simulator.sweeps.sampling import unit_part
+    from simulator.units import _quantity, registry
+
+    case_q = _quantity(current, "")
+    ureg = registry()
+    shown = ureg.Quantity(value, case_q.to_base_units().units).to(case_q.units)
+    unit = unit_part(current) if len(current.split()) > 1 else ""
+    magnitude = float(shown.magnitude)
+    return f"{0.0 if abs(magnitude) < 1e-12 * max(abs(float(case_q.magnitude)), 1e-300) else magnitude:.6g} {unit}"
 
 
 def checked_against_loader(specs, base, raw, probe, where="uncertainty"):
@@ -62,15 +77,17 @@ def checked_against_loader(specs, base, raw, probe, where="uncertainty"):
     specs : list of UncertainParameter
         The entries, truncated normals with ``low``/``high`` set (``-inf``/``inf`` for no bound).
     ranges : dict
-        ``{parameter: {"accepted_low", "accepted_high", "share_outside", "reasons"}}``
-        (SI values; None for no bound), for ``uncertainty.json``.
+        ``{parameter: {"accepted_low", "accepted_high", "accepted_low_as_written",
+        "accepted_high_as_written", "share_outside", "reasons"}}`` (SI values, None for no
+        bound; the same in the unit of the case value, "none" for no bound), for
+        ``uncertainty.json``.
 
     Raises
     ------
     CaseError
         One line per entry whose share outside exceeds :data:`REFUSED_SHARE_LIMIT`.
     """
-    from simulator.sweeps.paths import dimensionality_of, get_path, si_text
+    from simulator.sweeps.paths import get_path
     from simulator.sweeps.sampling import distribution
     from simulator.sweeps.validity import accepted_interval
 
@@ -95,12 +112,14 @@ def checked_against_loader(specs, base, raw, probe, where="uncertainty"):
         actual = distribution(spec, centre)
         share = (float(actual.cdf(low)) if math.isfinite(low) else 0.0) \
             + (float(actual.sf(high)) if math.isfinite(high) else 0.0)
+        current = get_path(raw, spec.parameter)
+        spread = float(dist.std()) if math.isfinite(float(dist.std())) else 0.0
         ranges[spec.parameter] = {"accepted_low": low if math.isfinite(low) else None,
                                   "accepted_high": high if math.isfinite(high) else None,
+                                  "accepted_low_as_written": _bound_text(low, current, spread),
+                                  "accepted_high_as_written": _bound_text(high, current, spread),
                                   "share_outside": share, "reasons": reasons}
         if share > REFUSED_SHARE_LIMIT:
-            dim = dimensionality_of(get_path(raw, spec.parameter), spec.parameter)
-            unit = si_text(1.0, dim).split(" ", 1)[1] if dim != "dimensionless" else ""
             side = "low" if "low" in reasons and (not math.isfinite(high) or actual.cdf(low) >= actual.sf(high)) \
                 else "high"
             bound = low if side == "low" else high
@@ -109,7 +128,8 @@ def checked_against_loader(specs, base, raw, probe, where="uncertainty"):
                 f"{where}.{index}: a {spec.distribution} distribution of {spec.parameter} "
                 f"({', '.join(f'{k} = {v!r}' for k, v in written.items() if k in ('std', 'factor', 'low', 'high'))}) "
                 f"puts {100 * share:.3g} % of its samples where the case is refused "
-                f"({'below' if side == 'low' else 'above'} {_bound_text(bound, unit)}: {reasons[side]}); "
+                f"({'below' if side == 'low' else 'above'} {_bound_text(bound, current, spread)}: "
+                f"{reasons[side].split(': ', 1)[-1].rstrip('.')}); "
                 f"at most {100 * REFUSED_SHARE_LIMIT:g} % is accepted. Use distribution = \"lognormal\" "
                 "(for a positive quantity) or \"truncated-normal\" (std, optional low and high; "
                 "default the accepted range), or a smaller spread")
@@ -140,7 +160,7 @@ def outside(ranges, values):
         if v is None:
             continue
         if rng["accepted_low"] is not None and v < rng["accepted_low"]:
-            out.append(f"{path} below {rng['accepted_low']:.6g} (SI)")
+            out.append(f"{path} below {rng['accepted_low_as_written']}")
         elif rng["accepted_high"] is not None and v > rng["accepted_high"]:
-            out.append(f"{path} above {rng['accepted_high']:.6g} (SI)")
+            out.append(f"{path} above {rng['accepted_high_as_written']}")
     return out

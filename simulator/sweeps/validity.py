@@ -11,7 +11,7 @@ one path, all else as in the base case, form an interval. This module
   20 000 values), so every value is classified exactly under the interval rule;
 * finds the interval of accepted values of an uncertain parameter (bisection from
   the case value towards each far tail of its distribution), from which
-  :mod:`~simulator.sweeps.uncertain_checks` computes the share of the distribution
+  :mod:`~simulator.sweeps.uncertain_ranges` computes the share of the distribution
   the loader would refuse.
 
 Every case is still checked when it runs (the per-case evaluator loads it; the
