@@ -234,6 +234,10 @@ def _raw_case(path):
     return tomllib.loads(Path(path).read_text(encoding="utf-8")), str(Path(path).resolve().parent)
 
 
+#: Cases from which sweep and uncertainty say at once what they are doing (start-up takes seconds).
+_LONG_RUN = 1000
+
+
 def _interrupted(args):
     """Ctrl-C in a sweep or uncertainty run: what is kept, and the command that resumes it."""
     print(f"interrupted: the finished cases are stored in {args.out}/results.sqlite; "
@@ -242,17 +246,24 @@ def _interrupted(args):
 
 
 def _sweep(args):
+    from simulator.sweeps.paths import parse_vary
+
+    specs = [parse_vary(v) for v in args.vary]
+    n_cases = 1
+    for spec in specs:
+        n_cases *= len(spec.values_si)
+    if n_cases >= _LONG_RUN:             # at once: loading Cantera and building the model take seconds
+        print(f"sweep: {n_cases} cases; checking the case and the values, then building the model",
+              file=sys.stderr, flush=True)
     from simulator.case.load import load_case
     from simulator.report.sweep_plots import write_sweep_figures
     from simulator.sweeps.compiled_sweep import run_compiled_sweep
     from simulator.sweeps.engine import choose_engine
     from simulator.sweeps.evaluator import TubeEvaluator
     from simulator.sweeps.execute import run_grid_sweep
-    from simulator.sweeps.paths import parse_vary
     from simulator.sweeps.validity import check_vary_values
 
     raw, case_dir = _raw_case(args.case)
-    specs = [parse_vary(v) for v in args.vary]
     check_vary_values(raw, case_dir, specs, args.case)
     engine, model = choose_engine(args.engine, load_case(args.case), [spec.path for spec in specs], args.scheduler)
     try:
@@ -274,6 +285,9 @@ def _sweep(args):
 
 
 def _uncertainty(args):
+    if args.samples >= _LONG_RUN:
+        print(f"uncertainty: {args.samples} samples; checking the case and the distributions, then building the "
+              "model", file=sys.stderr, flush=True)
     from simulator.case.load import load_case
     from simulator.report.sweep_plots import write_uncertainty_figure
     from simulator.sweeps.engine import choose_engine
