@@ -236,3 +236,24 @@ def test_exceedance_figure_states_the_samples_and_what_was_left_out(cases_dir, t
     svg = (tmp_path / "f" / "exceedance.svg").read_text()
     assert f"16 samples; curve and probability over {p['n']} runs; left out: nothing" in svg
     assert f"= {p['exceeding']}/{p['n']} = " in svg
+
+
+@pytest.mark.parametrize("verb, extra, message", [
+    ("uncertainty", ["--seed", "-1"], "--seed -1: must be a whole number from 0"),       # before: numpy traceback
+    ("uncertainty", ["--batch-size", "0", "--engine", "pool"], "--batch-size 0: must be a whole number >= 1"),
+    ("uncertainty", ["--samples", "20000000"], "--samples 20000000: at most 10000000 samples"),
+    ("sweep", ["--batch-size", "0", "--engine", "pool"], "--batch-size 0: must be a whole number >= 1"),
+    ("sweep", ["--vary", "heat.medium.temperature=620 K..640 K in 2000000000"], "at most 10000000 values"),
+])
+def test_bad_sweep_options_exit_2_with_one_line_and_write_nothing(cases_dir, tmp_path, capsys, verb, extra, message):
+    path = _uncertain_case_file(cases_dir, tmp_path, [
+        {"parameter": '"heat.medium.temperature"', "distribution": '"uniform"', "low": '"620 K"', "high": '"640 K"'},
+    ])
+    out = tmp_path / "out"
+    argv = [verb, str(path), "--out", str(out)]
+    argv += ["--samples", "4"] if verb == "uncertainty" and "--samples" not in extra else []
+    argv += ["--vary", "heat.medium.temperature=620 K..640 K in 2"] if verb == "sweep" and "--vary" not in extra else []
+    assert main(argv + extra) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 1 and err[0].startswith("error: ") and message in err[0]
+    assert not out.exists()

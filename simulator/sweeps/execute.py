@@ -189,6 +189,13 @@ def evaluate_batch(evaluator, base_raw, case_dir, batch):
     return [evaluate_case(evaluator, base_raw, case_dir, case_id, values) for case_id, values in batch]
 
 
+def check_batch_size(batch_size):
+    """Refuse a ``--batch-size`` below 1 (None: automatic) before anything is written."""
+    if batch_size is not None and (isinstance(batch_size, bool) or int(batch_size) != batch_size
+                                   or batch_size < 1):
+        raise CaseError(f"--batch-size {batch_size!r}: must be a whole number >= 1")
+
+
 def plan_batches(cases, batch_size=None, seconds_per_case=None, workers=1):
     """Split cases into tasks.
 
@@ -213,12 +220,11 @@ def plan_batches(cases, batch_size=None, seconds_per_case=None, workers=1):
         The batches, in case order.
     """
     n = len(cases)
+    check_batch_size(batch_size)
     if n == 0:
         return []
     if batch_size is not None:
         size = int(batch_size)
-        if size < 1:
-            raise ValueError(f"batch_size = {batch_size!r}: must be a whole number >= 1")
         return [cases[i:i + size] for i in range(0, n, size)]
     per_case = seconds_per_case or DEFAULT_SECONDS_PER_CASE
     target = min(max(math.ceil(TARGET_TASK_SECONDS / per_case), MIN_BATCH), 1000)
@@ -524,6 +530,7 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
         raise CaseError('--vary: give at least one "PATH=START..STOP in N"')
     for spec in specs:
         check_vary(base_raw, spec)
+    check_batch_size(batch_size)
     cases = grid(specs)
     out_dir = Path(out_dir)
     meta = grid_meta(base_raw, specs, cases)
@@ -598,6 +605,7 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
         raise ValueError(f"engine = {engine!r}: choose pool or compiled")
     if engine == "compiled" and model is None:
         raise ValueError("engine = 'compiled' needs the base model")
+    check_batch_size(batch_size)
     specs = sampling.parse_uncertainty(base_raw.get("uncertainty"), base_raw)
     if temperature_limit is None:
         text = get_path(base_raw, "design.temperature_limit")

@@ -80,6 +80,7 @@ def folder_lock(out_dir, command="sweep"):
         If a live process (or a process on another host) holds the lock.
     """
     out = Path(out_dir)
+    created = not out.exists()
     out.mkdir(parents=True, exist_ok=True)
     path = out / LOCK_NAME
     host = socket.gethostname()
@@ -116,4 +117,9 @@ def folder_lock(out_dir, command="sweep"):
             try:
                 path.unlink()
             except FileNotFoundError:
+                pass
+        if created:              # a run refused before writing anything leaves no empty folder behind
+            try:
+                out.rmdir()
+            except OSError:      # not empty: results were written
                 pass

@@ -54,7 +54,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from simulator.errors import CaseError, SimulatorWarning
-from simulator.sweeps.paths import dimensionality_of, get_path
+from simulator.sweeps.paths import MAX_CASES, dimensionality_of, get_path
 from simulator.units import parse_quantity
 
 #: Distributions and the keys each one needs.
@@ -200,7 +200,7 @@ def _parse_entry(entry, raw, here):
                                 "the case value is the centre of the parent normal")
     elif dist == "lognormal":
         factor = entry["factor"]
-        if isinstance(factor, bool) or not isinstance(factor, (int, float)) or not factor > 1:
+        if isinstance(factor, bool) or not isinstance(factor, (int, float)) or not 1 < factor < math.inf:
             problems.append(f"{here}.factor = {factor!r}: a plain number > 1 (the multiplicative one-sigma factor)")
         else:
             values["factor"] = float(factor)
@@ -236,6 +236,8 @@ def _given(value, dim, where, path, current, difference=False):
         if isinstance(value, bool) or not isinstance(value, (int, float)):
             raise CaseError(f"{where} = {value!r}: {path} is a plain number in the case ({current!r}); "
                             "give a plain number")
+        if not math.isfinite(value):
+            raise CaseError(f"{where} = {value!r}: not a finite number")
         return float(value)
     unit = unit_part(current)
     example = "2 K" if difference and dim == "[temperature]" else f"1 {unit}"
@@ -314,6 +316,10 @@ def unit_points(n, d, seed, method="lhs"):
         raise CaseError(f"--method {method!r}: choose one of: {', '.join(METHODS)}")
     if isinstance(n, bool) or not isinstance(n, (int, np.integer)) or n < 1:
         raise CaseError(f"--samples {n!r}: must be a whole number >= 1")
+    if n > MAX_CASES:
+        raise CaseError(f"--samples {n!r}: at most {MAX_CASES} samples per run (a work budget)")
+    if isinstance(seed, bool) or not isinstance(seed, (int, np.integer)) or not 0 <= seed < 2 ** 128:
+        raise CaseError(f"--seed {seed!r}: must be a whole number from 0 to 2**128 - 1")
     n = int(n)
     engine_class = qmc.LatinHypercube if method == "lhs" else qmc.Sobol
     try:
