@@ -238,6 +238,12 @@ def _raw_case(path):
 _LONG_RUN = 1000
 
 
+def _long_run_on_terminal(n_cases):
+    """True for a long run watched on a terminal: say at once what it does (logs keep one-line errors)."""
+    isatty = getattr(sys.stderr, "isatty", None)
+    return n_cases >= _LONG_RUN and bool(isatty and isatty())
+
+
 def _interrupted(args):
     """Ctrl-C in a sweep or uncertainty run: what is kept, and the command that resumes it."""
     print(f"interrupted: the finished cases are stored in {args.out}/results.sqlite; "
@@ -252,7 +258,7 @@ def _sweep(args):
     n_cases = 1
     for spec in specs:
         n_cases *= len(spec.values_si)
-    if n_cases >= _LONG_RUN:             # at once: loading Cantera and building the model take seconds
+    if _long_run_on_terminal(n_cases):   # at once: loading Cantera and building the model take seconds
         print(f"sweep: {n_cases} cases; checking the case and the values, then building the model",
               file=sys.stderr, flush=True)
     from simulator.case.load import load_case
@@ -285,7 +291,7 @@ def _sweep(args):
 
 
 def _uncertainty(args):
-    if args.samples >= _LONG_RUN:
+    if _long_run_on_terminal(args.samples):
         print(f"uncertainty: {args.samples} samples; checking the case and the distributions, then building the "
               "model", file=sys.stderr, flush=True)
     from simulator.case.load import load_case
