@@ -184,7 +184,7 @@ def test_uncertainty_refuses_a_normal_that_reaches_far_into_refused_values(cases
     ])
     assert main(["uncertainty", str(path), "--samples", "8", "--out", str(tmp_path / "o")]) == 2
     err = capsys.readouterr().err
-    assert "error: uncertainty.0: a normal distribution of heat.overall_coefficient" in err
+    assert f"error: {path}: uncertainty.0: a normal distribution of heat.overall_coefficient" in err
     assert '"truncated-normal"' in err and "Traceback" not in err
     assert not (tmp_path / "o" / "results.sqlite").exists()
 
@@ -257,3 +257,23 @@ def test_bad_sweep_options_exit_2_with_one_line_and_write_nothing(cases_dir, tmp
     err = capsys.readouterr().err.strip().splitlines()
     assert len(err) == 1 and err[0].startswith("error: ") and message in err[0]
     assert not out.exists()
+
+
+def test_compiled_engine_stores_values_outside_the_accepted_range_as_invalid(cases_dir, tmp_path):
+    # the per-case engine's loader refuses such a sample; the compiled engine must not solve it either
+    from simulator.case.load import load_case
+    from simulator.model.build import build_model
+    from simulator.sweeps.compiled_sweep import run_compiled_cases
+    from simulator.sweeps.store import ResultsStore
+
+    model = build_model(load_case(cases_dir / CASE))
+    path = "heat.medium.temperature"
+    cases = [(0, {path: 620.0}), (1, {path: 700.0}), (2, {path: 625.0})]
+    ranges = {path: {"accepted_low": 600.0, "accepted_high": 650.0, "accepted_low_as_written": "600 K",
+                     "accepted_high_as_written": "650 K"}}
+    with ResultsStore(tmp_path / "r.sqlite", [path]) as store:
+        run_compiled_cases(str(cases_dir), cases, [path], model, store, progress=False, ranges=ranges)
+        rows = store.rows()
+    assert [r["status"] for r in rows] == ["completed", "invalid", "completed"]
+    assert rows[1]["error"] == "outside the range the case accepts: heat.medium.temperature above 650 K"
+    assert rows[1]["hot_spot_temperature_K"] is None

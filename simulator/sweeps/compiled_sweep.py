@@ -85,7 +85,7 @@ def chunk_sizes(n, first=FIRST_CHUNK, largest=CHUNK):
     return sizes
 
 
-def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, label="cases"):
+def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, label="cases", ranges=None):
     """Solve ``(case_id, {path: value})`` cases on the compiled engine and store their rows.
 
     Cases already in ``store`` are skipped (resume). Each chunk is one transaction.
@@ -109,6 +109,10 @@ def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, labe
         Show progress on stderr.
     label : str
         Word in front of the progress line.
+    ranges : dict, optional
+        Accepted range per path (:func:`simulator.sweeps.uncertain_ranges.checked_against_loader`):
+        a case with a value outside is stored as ``"invalid"`` without solving it, as the
+        case loader of the per-case engine would refuse it.
 
     Returns
     -------
@@ -130,22 +134,42 @@ def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, labe
         for size in sizes:
             chunk = pending[start:start + size]
             start += size
-            params = np.array([[values[p] for p in paths] for _, values in chunk], dtype=float)
-            packed = fast.pack_cases(model, params, paths)
-            out = fast.batch_solve(model, params, paths, rtol=SWEEP_RTOL, temperature_limit=_guards(model, packed.y0),
-                                   case_dir=str(case_dir))
-            rows = [_row(out, k, cid, values) for k, (cid, values) in enumerate(chunk)]
+            rows = _outside_rows(chunk, ranges)
+            chunk = [(cid, values) for cid, values in chunk if cid not in rows]
+            if chunk:
+                params = np.array([[values[p] for p in paths] for _, values in chunk], dtype=float)
+                packed = fast.pack_cases(model, params, paths)
+                out = fast.batch_solve(model, params, paths, rtol=SWEEP_RTOL,
+                                       temperature_limit=_guards(model, packed.y0), case_dir=str(case_dir))
+                rows.update({cid: _row(out, k, cid, values) for k, (cid, values) in enumerate(chunk)})
+            rows = [rows[cid] for cid in sorted(rows)]
             n_failed = sum(row["status"] == "failed" for row in rows)
             failed += n_failed
             store.write_rows(rows)
             if bar:
-                bar.update(len(chunk), n_failed)
+                bar.update(len(rows), n_failed)
     finally:
         if bar:
             bar.close()
     return RunSummary(total=len(cases), skipped=len(cases) - len(pending), computed=len(pending), failed=failed,
                       batches=len(sizes), batch_size=max(sizes, default=0),
                       workers=_threads(), elapsed=time.perf_counter() - started)
+
+
+def _outside_rows(chunk, ranges):
+    """``{case_id: row}`` of the cases with a value outside its accepted range (status "invalid")."""
+    from simulator.sweeps.store import RESULT_FIELDS
+    from simulator.sweeps.uncertain_ranges import outside
+
+    rows = {}
+    for cid, values in chunk if ranges else ():
+        why = outside(ranges, values)
+        if why:
+            row = {name: None for name in RESULT_FIELDS}
+            row.update(values, case_id=cid, status="invalid",
+                       error="outside the range the case accepts: " + "; ".join(why))
+            rows[cid] = row
+    return rows
 
 
 def _row(out, k, cid, values):

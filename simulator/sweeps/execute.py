@@ -606,13 +606,14 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     if engine == "compiled" and model is None:
         raise ValueError("engine = 'compiled' needs the base model")
     check_batch_size(batch_size)
-    specs = sampling.parse_uncertainty(base_raw.get("uncertainty"), base_raw)
+    where = f"{source_path}: uncertainty" if source_path else "uncertainty"
+    specs = sampling.parse_uncertainty(base_raw.get("uncertainty"), base_raw, where=where)
     if temperature_limit is None:
         text = get_path(base_raw, "design.temperature_limit")
         temperature_limit = parse_quantity(text, "temperature", "design.temperature_limit")
     base = sampling.base_values(specs, base_raw)
     probe = probe if probe is not None else CaseProbe(base_raw, str(case_dir), str(source_path))
-    specs, ranges = checked_against_loader(specs, base, base_raw, probe)
+    specs, ranges = checked_against_loader(specs, base, base_raw, probe, where=where)
     out_dir = Path(out_dir)
     db = out_dir / "results.sqlite"
     with folder_lock(out_dir, "uncertainty"):
@@ -638,7 +639,7 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
                 from simulator.sweeps.compiled_sweep import run_compiled_cases
 
                 summary = run_compiled_cases(case_dir, cases, paths, model, store, progress=bool(progress),
-                                             label="samples")
+                                             label="samples", ranges=ranges)
             else:
                 summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
                                     scheduler=scheduler, batch_size=batch_size, progress=progress)
