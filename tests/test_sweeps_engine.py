@@ -642,6 +642,13 @@ def test_a_distribution_with_much_mass_where_the_case_is_refused_is_refused():
     assert line.startswith("uncertainty.0: a normal distribution of reactions.0.pre_exponential (std = '1e7 1/s') "
                            "puts 15.9 % of its samples where the case is refused (below 0 1/s: must be >= 0)")
     assert "at most 0.1 % is accepted" in line and '"lognormal"' in line and '"truncated-normal"' in line
+    # a truncated normal keeps the bounds it is given: cut at -1e7 1/s it still reaches below zero
+    # (share below 0 of N(1e7, 1e7) cut to [-1e7, inf): (Phi(-1) - Phi(-2)) / (1 - Phi(-2)) = 13.9 %)
+    raw["uncertainty"] = [{"parameter": "reactions.0.pre_exponential", "distribution": "truncated-normal",
+                           "std": "1e7 1/s", "low": "-1e7 1/s"}]
+    specs = sampling.parse_uncertainty(raw["uncertainty"], raw)
+    with pytest.raises(CaseError, match=r"puts 13\.9 % of its samples where the case is refused"):
+        checked_against_loader(specs, sampling.base_values(specs, raw), raw, ClosedFormProbe())
 
 
 def test_invalid_samples_are_counted_and_the_probability_states_its_denominator(tmp_path):

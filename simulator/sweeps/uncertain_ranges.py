@@ -107,8 +107,9 @@ def checked_against_loader(specs, base, raw, probe, where="uncertainty"):
             far_high = far_high if spec.high is None else min(far_high, spec.high)
         low, high, reasons = accepted_interval(probe, spec.parameter, float(centre), far_low, far_high, cdf=dist.cdf)
         if spec.distribution == "truncated-normal":
-            spec = dataclasses.replace(spec, low=low if spec.low is None else max(spec.low, low),
-                                       high=high if spec.high is None else min(spec.high, high))
+            # only missing bounds default to the accepted range; given ones are kept and checked below
+            spec = dataclasses.replace(spec, low=low if spec.low is None else spec.low,
+                                       high=high if spec.high is None else spec.high)
         actual = distribution(spec, centre)
         share = (float(actual.cdf(low)) if math.isfinite(low) else 0.0) \
             + (float(actual.sf(high)) if math.isfinite(high) else 0.0)
