@@ -1,8 +1,10 @@
 """Grid sweeps through the compiled batch integrator, with the same store and resume as the pool.
 
-Used by ``tubesim sweep`` when every varied path is an operating number the
-compiled path supports (:func:`simulator.sweeps.fast.supports`) and no Dask
-scheduler is given. Cases run in chunks; each chunk is written to
+Used by ``tubesim sweep`` and ``tubesim uncertainty`` (one rule,
+:mod:`simulator.sweeps.engine`) when every varied or sampled path is an operating
+number the compiled path supports (:func:`simulator.sweeps.fast.supports`) and no Dask
+scheduler is given. Cases run in chunks, the first small (progress within about a
+second), then doubling up to :data:`CHUNK`; each chunk is written to
 ``results.sqlite`` in one transaction, so an interrupted run resumes where it
 stopped, by this engine or the process pool alike (the store's ``meta`` is the
 same). As for the pool evaluator, the design temperature limit does not stop a
