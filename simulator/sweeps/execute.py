@@ -598,22 +598,17 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     """
     from simulator.fileio import atomic_write_json
     from simulator.sweeps import sampling
-    from simulator.sweeps.uncertain_ranges import checked_against_loader
-    from simulator.sweeps.validity import CaseProbe
+    from simulator.sweeps.uncertain_ranges import check_uncertainty_entries
 
     if engine not in ("pool", "compiled"):
         raise ValueError(f"engine = {engine!r}: choose pool or compiled")
     if engine == "compiled" and model is None:
         raise ValueError("engine = 'compiled' needs the base model")
     check_batch_size(batch_size)
-    where = f"{source_path}: uncertainty" if source_path else "uncertainty"
-    specs = sampling.parse_uncertainty(base_raw.get("uncertainty"), base_raw, where=where)
+    specs, base, ranges = check_uncertainty_entries(base_raw, case_dir, source_path, probe)
     if temperature_limit is None:
         text = get_path(base_raw, "design.temperature_limit")
         temperature_limit = parse_quantity(text, "temperature", "design.temperature_limit")
-    base = sampling.base_values(specs, base_raw)
-    probe = probe if probe is not None else CaseProbe(base_raw, str(case_dir), str(source_path))
-    specs, ranges = checked_against_loader(specs, base, base_raw, probe, where=where)
     out_dir = Path(out_dir)
     db = out_dir / "results.sqlite"
     with folder_lock(out_dir, "uncertainty"):

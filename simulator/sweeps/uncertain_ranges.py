@@ -165,3 +165,43 @@ def outside(ranges, values):
         elif rng["accepted_high"] is not None and v > rng["accepted_high"]:
             out.append(f"{path} above {rng['accepted_high_as_written']}")
     return out
+
+
+def check_uncertainty_entries(raw, case_dir, source_path="", probe=None):
+    """Everything ``tubesim uncertainty`` checks before a case runs (also for ``tubesim validate``).
+
+    Parameters
+    ----------
+    raw : dict
+        Raw case with ``[[uncertainty]]`` entries (the case itself already accepted).
+    case_dir : str
+        Folder of the case file.
+    source_path : str
+        Case file, for messages.
+    probe : object, optional
+        ``refusal(path, value) -> None or reason``; default the case loader
+        (:class:`~simulator.sweeps.validity.CaseProbe`).
+
+    Returns
+    -------
+    specs : list of UncertainParameter
+        The entries, truncated normals with their bounds.
+    base : ndarray
+        Case values at the parameters, in SI units
+    ranges : dict
+        Accepted range per parameter (:func:`checked_against_loader`).
+
+    Raises
+    ------
+    CaseError
+        As :func:`simulator.sweeps.sampling.parse_uncertainty` and :func:`checked_against_loader`.
+    """
+    from simulator.sweeps import sampling
+    from simulator.sweeps.validity import CaseProbe
+
+    where = f"{source_path}: uncertainty" if source_path else "uncertainty"
+    specs = sampling.parse_uncertainty(raw.get("uncertainty"), raw, where=where)
+    base = sampling.base_values(specs, raw)
+    probe = probe if probe is not None else CaseProbe(raw, str(case_dir), str(source_path))
+    specs, ranges = checked_against_loader(specs, base, raw, probe, where=where)
+    return specs, base, ranges
