@@ -277,3 +277,14 @@ def test_compiled_engine_stores_values_outside_the_accepted_range_as_invalid(cas
     assert [r["status"] for r in rows] == ["completed", "invalid", "completed"]
     assert rows[1]["error"] == "outside the range the case accepts: heat.medium.temperature above 650 K"
     assert rows[1]["hot_spot_temperature_K"] is None
+
+
+def test_uncertainty_without_a_temperature_limit_says_what_it_needs(cases_dir, tmp_path, capsys):
+    # before: "design.temperature_limit: no field 'temperature_limit' in design; valid: ..."
+    path = _uncertain_case_file(cases_dir, tmp_path, [
+        {"parameter": '"heat.medium.temperature"', "distribution": '"uniform"', "low": '"620 K"', "high": '"640 K"'},
+    ])
+    path.write_text(path.read_text().replace('temperature_limit = "1200 K"\n', ""))
+    assert main(["uncertainty", str(path), "--samples", "4", "--out", str(tmp_path / "o")]) == 2
+    err = capsys.readouterr().err
+    assert f"error: {path}: design.temperature_limit: missing; uncertainty estimates the probability" in err

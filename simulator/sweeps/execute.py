@@ -607,8 +607,13 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     check_batch_size(batch_size)
     specs, base, ranges = check_uncertainty_entries(base_raw, case_dir, source_path, probe)
     if temperature_limit is None:
-        text = get_path(base_raw, "design.temperature_limit")
-        temperature_limit = parse_quantity(text, "temperature", "design.temperature_limit")
+        prefix = f"{source_path}: " if source_path else ""
+        text = base_raw.get("design", {}).get("temperature_limit") if isinstance(base_raw.get("design"), dict) \
+            else None
+        if text is None:
+            raise CaseError(f"{prefix}design.temperature_limit: missing; uncertainty estimates the probability "
+                            'that the hot spot exceeds it; give it, e.g. temperature_limit = "650 K"')
+        temperature_limit = parse_quantity(text, "temperature", f"{prefix}design.temperature_limit")
     out_dir = Path(out_dir)
     db = out_dir / "results.sqlite"
     with folder_lock(out_dir, "uncertainty"):
