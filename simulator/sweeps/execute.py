@@ -46,7 +46,7 @@ from pathlib import Path
 
 from simulator.errors import CaseError, SimulatorError
 from simulator.sweeps.lock import folder_lock
-from simulator.sweeps.paths import apply_values, check_vary, get_path, grid, parse_vary, VarySpec
+from simulator.sweeps.paths import apply_values, check_vary, grid, parse_vary, VarySpec
 from simulator.sweeps.progress import Progress
 from simulator.sweeps.store import RESULT_FIELDS, ResultsStore
 from simulator.units import parse_quantity
