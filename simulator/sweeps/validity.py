@@ -50,6 +50,8 @@ class CaseProbe:
         Folder of the case file.
     source_path : str
         Case file, for the loader's messages.
+    loads : int
+        Case loads so far (counted, for tests and benchmarks), [-]
     """
 
     raw: dict
