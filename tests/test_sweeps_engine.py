@@ -741,6 +741,11 @@ def test_a_second_run_into_the_same_folder_is_refused_while_the_first_runs(tmp_p
         with pytest.raises(FolderInUseError, match=rf"in use by process {os.getpid()}"):
             with folder_lock(tmp_path / "out"):
                 pass
+    # a live PID with another process start time: the PID was reused after the owner died, so stale
+    (tmp_path / "out" / LOCK_NAME).write_text(
+        f'{{"pid": {os.getpid()}, "host": "{__import__("socket").gethostname()}", "process_start": 1}}')
+    with folder_lock(tmp_path / "out") as lock:
+        assert f'"pid": {os.getpid()}' in lock.read_text() and '"process_start": 1,' not in lock.read_text()
 
 
 # -- progress ------------------------------------------------------------------------------------------

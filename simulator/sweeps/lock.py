@@ -6,7 +6,8 @@ with an integrity error). :func:`folder_lock` creates ``DIR/.tubesim.lock`` with
 ``O_CREAT | O_EXCL`` (atomic on local file systems) holding the process id, host name
 and start time. A second run finds it and stops with :class:`FolderInUseError`
 ("in use by process N"). A lock whose process is gone (killed with SIGKILL, machine
-restarted) is stale: it is removed and taken over. A lock written on another host
+restarted), or whose PID now belongs to a process started later (the recorded
+process start time differs), is stale: it is removed and taken over. A lock written on another host
 cannot be checked from here and is never taken over; the message says so and how to
 remove it by hand.
 """
@@ -38,6 +39,19 @@ def _alive(pid):
     except PermissionError:       # exists, owned by another user
         return True
     return True
+
+
+def _start_ticks(pid):
+    """Start time of a process in clock ticks since boot (Linux ``/proc``), or None where unknown.
+
+    Stored with the PID, so a lock whose process ended and whose PID was reused by
+    another process is still recognised as stale.
+    """
+    try:
+        text = Path(f"/proc/{int(pid)}/stat").read_text(encoding="ascii", errors="replace")
+        return int(text.rsplit(")", 1)[1].split()[19])      # field 22 counted after the command name
+    except (OSError, ValueError, IndexError):
+        return None
 
 
 def _read(path):
@@ -84,7 +98,7 @@ def folder_lock(out_dir, command="sweep"):
     out.mkdir(parents=True, exist_ok=True)
     path = out / LOCK_NAME
     host = socket.gethostname()
-    mine = {"pid": os.getpid(), "host": host, "command": command,
+    mine = {"pid": os.getpid(), "host": host, "command": command, "process_start": _start_ticks(os.getpid()),
             "started": datetime.now(timezone.utc).isoformat(timespec="seconds")}
     for _ in range(3):       # create; or remove a stale lock and try again (another may win the race)
         if _try_create(path, mine):
@@ -100,7 +114,9 @@ def folder_lock(out_dir, command="sweep"):
             raise FolderInUseError(f"--out {out}: in use by process {pid} on host {held['host']} "
                                    f"({held.get('command', 'a run')} since {held.get('started', '?')}); "
                                    f"if that run has ended, delete {path} and rerun")
-        if _alive(pid):          # this process included: a nested run into the same folder
+        recorded = held.get("process_start")
+        reused = recorded is not None and _start_ticks(pid) not in (None, recorded)
+        if _alive(pid) and not reused:   # this process included: a nested run into the same folder
             raise FolderInUseError(f"--out {out}: in use by process {pid} "
                                    f"({held.get('command', 'a run')} since {held.get('started', '?')}); "
                                    "wait for it to finish or give another --out")
