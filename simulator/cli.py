@@ -26,8 +26,9 @@ def _execution_options(p):
                    help="Dask scheduler address, e.g. tcp://10.0.0.5:8786 (default: local process pool)")
     p.add_argument("--batch-size", type=int, default=None, help="cases per task (default: automatic, >= 25)")
     p.add_argument("--engine", choices=("auto", "compiled", "pool"), default="auto",
-                   help="auto: the compiled batch integrator when every varied path is an operating number it "
-                        "supports and no --scheduler is given, else the process pool / Dask (default auto)")
+                   help="auto: the compiled batch integrator when every varied (sweep) or sampled (uncertainty) "
+                        "path is an operating number it supports and no --scheduler is given, else the process "
+                        "pool / Dask (default auto); the engine that ran is printed")
 
 
 def build_parser():
