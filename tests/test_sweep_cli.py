@@ -288,3 +288,15 @@ def test_uncertainty_without_a_temperature_limit_says_what_it_needs(cases_dir, t
     assert main(["uncertainty", str(path), "--samples", "4", "--out", str(tmp_path / "o")]) == 2
     err = capsys.readouterr().err
     assert f"error: {path}: design.temperature_limit: missing; uncertainty estimates the probability" in err
+
+
+@pytest.mark.parametrize("engine", ["compiled", "pool"])
+def test_a_furnace_hotter_than_the_feed_plus_500_k_is_no_runaway(cases_dir, tmp_path, engine):
+    # before: the guard T_feed + 3 dT_ad + 500 K = 1450 K stopped the endothermic heated coil with a
+    # 1600 K furnace as a "runaway"; the gas heated by the medium must run to the outlet
+    out = tmp_path / engine
+    assert main(["sweep", str(cases_dir / "dehydrogenation_heated_tube.toml"), "--vary",
+                 "heat.medium.temperature=1600 K..1700 K in 2", "--out", str(out), "--engine", engine]) == 0
+    rows = _rows(out / "results.csv")
+    assert [r["status"] for r in rows] == ["completed", "completed"]
+    assert all(1450.0 < float(r["hot_spot_temperature_K"]) < float(r["heat.medium.temperature"]) for r in rows)

@@ -8,7 +8,7 @@ second), then doubling up to :data:`CHUNK`; each chunk is written to
 ``results.sqlite`` in one transaction, so an interrupted run resumes where it
 stopped, by this engine or the process pool alike (the store's ``meta`` is the
 same). As for the pool evaluator, the design temperature limit does not stop a
-sweep run: the runaway guard T_feed + 3 dT_ad + 500 K does.
+sweep run: the runaway guard max(T_feed, T_medium) + 3 dT_ad + 500 K does.
 
 Tolerance: rtol 3e-6 with the case's scale-based absolute tolerance; the tests
 check agreement with per-case LSODA solves at rtol 1e-10 within 0.05 K on the
@@ -41,14 +41,11 @@ def compiled_supported(model, paths):
 
 def _guards(model, y0):
     """Runaway guard temperature of every case from its inlet state, [K]."""
-    from simulator.model.adiabatic import adiabatic_rise
+    from simulator.sweeps.evaluator import runaway_guard
 
     n = model.n
-    feeds, inverse = np.unique(y0[:, :n + 1], axis=0, return_inverse=True)
-    guard = np.empty(len(feeds))
-    for k, row in enumerate(feeds):
-        rise = adiabatic_rise(row[:n], row[n], model.args[4], model.key_index, model.args[2])[0]
-        guard[k] = row[n] + 3.0 * (rise if math.isfinite(rise) and rise > 0 else 0.0) + 500.0
+    feeds, inverse = np.unique(y0[:, :n + 3], axis=0, return_inverse=True)   # flows, T, P, medium T
+    guard = np.array([runaway_guard(model, row[:n], row[n], row[n + 2]) for row in feeds])
     return guard[np.asarray(inverse).ravel()]
 
 
