@@ -662,6 +662,9 @@ def test_invalid_samples_are_counted_and_the_probability_states_its_denominator(
     result = run_uncertainty(raw, tmp_path, RefusingEvaluator(), out, 5000, seed=2, progress=False,
                              probe=ClosedFormProbe(), batch_size=500)
     s, p = result["samples"], result["probability_exceeding_limit"]
+    summary = run_grid_sweep(_uncertain_case([]), tmp_path, ["reactions.0.pre_exponential=-1 1/s..1 1/s in 3"],
+                             RefusingEvaluator(), tmp_path / "grid", progress=False)
+    assert (summary.computed, summary.failed, summary.invalid) == (3, 0, 1)     # -1 1/s: refused, not failed
     assert s["invalid"] in (4, 5) and s["failed"] == 0 and s["valid"] == 5000 - s["invalid"]
     assert s["invalid_reasons"] == [{"reason": "reactions.0.pre_exponential below 0 1/s", "count": s["invalid"]}]
     assert p["denominator"] == p["n"] == 5000 - s["invalid"]

@@ -126,7 +126,7 @@ def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, labe
     bar = Progress(interactive=None, label=label) if progress else None
     if bar:
         bar.start(len(cases), done=len(cases) - len(pending), failed=store.count(status="failed") if done else 0)
-    failed = 0
+    failed = invalid = 0
     sizes = chunk_sizes(len(pending))
     start = 0
     try:
@@ -144,6 +144,7 @@ def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, labe
             rows = [rows[cid] for cid in sorted(rows)]
             n_failed = sum(row["status"] == "failed" for row in rows)
             failed += n_failed
+            invalid += sum(row["status"] == "invalid" for row in rows)
             store.write_rows(rows)
             if bar:
                 bar.update(len(rows), n_failed)
@@ -152,7 +153,7 @@ def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, labe
             bar.close()
     return RunSummary(total=len(cases), skipped=len(cases) - len(pending), computed=len(pending), failed=failed,
                       batches=len(sizes), batch_size=max(sizes, default=0),
-                      workers=_threads(), elapsed=time.perf_counter() - started)
+                      workers=_threads(), elapsed=time.perf_counter() - started, invalid=invalid)
 
 
 def _outside_rows(chunk, ranges):

@@ -116,6 +116,8 @@ class RunSummary:
         Worker processes (local) or worker threads (Dask) available.
     elapsed : float
         Wall time of the call, [s]
+    invalid : int
+        Of ``computed``, cases stored with status "invalid" (the case refused the values).
     """
 
     total: int
@@ -126,6 +128,7 @@ class RunSummary:
     batch_size: int
     workers: int
     elapsed: float
+    invalid: int = 0
 
 
 def one_line_error(err):
@@ -352,7 +355,7 @@ def run_cases(base_raw, case_dir, cases, evaluator, store, executor=None, schedu
     failed_before = _count_failed(store) if progress and skipped else 0
     if progress:
         progress.start(len(cases), skipped, failed_before)
-    computed = failed = submitted = 0
+    computed = failed = submitted = invalid = 0
     running = {}  # future -> (batch, deaths)
 
     def submit(batch, deaths):
@@ -366,11 +369,12 @@ def run_cases(base_raw, case_dir, cases, evaluator, store, executor=None, schedu
         submitted += 1
 
     def record(rows):
-        nonlocal computed, failed
+        nonlocal computed, failed, invalid
         store.write_rows(rows)
         n_failed = sum(row["status"] == "failed" for row in rows)
         computed += len(rows)
         failed += n_failed
+        invalid += sum(row["status"] == "invalid" for row in rows)
         if progress:
             progress.update(len(rows), n_failed)
 
@@ -436,7 +440,7 @@ def run_cases(base_raw, case_dir, cases, evaluator, store, executor=None, schedu
             progress.close()
     return RunSummary(total=len(cases), skipped=skipped, computed=computed, failed=failed,
                       batches=submitted, batch_size=planned_size, workers=workers,
-                      elapsed=time.perf_counter() - t0)
+                      elapsed=time.perf_counter() - t0, invalid=invalid)
 
 
 def _dies_alone(evaluator, base_raw, case_dir, batch):
