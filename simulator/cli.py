@@ -283,8 +283,9 @@ def _sweep(args):
         return _interrupted(args)
     figures = write_sweep_figures(args.out, raw)
     unit = "threads" if engine == "compiled" else "workers"
+    invalid = f", {summary.invalid} invalid (refused by the case)" if summary.invalid else ""
     print(f"{summary.total} cases ({engine} engine): {summary.computed} computed now, {summary.skipped} already "
-          f"done, {summary.failed} failed; {summary.elapsed:.1f} s on {summary.workers} {unit}")
+          f"done, {summary.failed} failed{invalid}; {summary.elapsed:.1f} s on {summary.workers} {unit}")
     for path in figures:
         print(f"figure: {path}")
     print(f"results: {args.out}/results.csv, {args.out}/results.sqlite")
