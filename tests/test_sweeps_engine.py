@@ -818,3 +818,16 @@ def test_dask_cluster_gives_the_same_results_as_the_local_pool(tmp_path):
     assert (local.computed, remote.computed, remote.failed) == (120, 120, 40)
     assert remote.batches == 5 and remote.workers == 2
     assert (tmp_path / "local" / "results.csv").read_text() == (tmp_path / "dask" / "results.csv").read_text()
+
+
+def test_a_value_the_loader_overflows_on_is_a_refusal_not_a_traceback(monkeypatch):
+    # an extreme swept value may overflow inside unit parsing; the check reports it as refused
+    import simulator.case.load as load
+    from simulator.sweeps.validity import CaseProbe
+
+    def overflow(raw, source_path="", case_dir=None):
+        raise OverflowError(34, "Numerical result out of range")
+
+    monkeypatch.setattr(load, "load_case_dict", overflow)
+    probe = CaseProbe(BASE_CASE, ".", "case.toml")
+    assert probe.refusal("heat.medium.temperature", 1e300).startswith("OverflowError: ")

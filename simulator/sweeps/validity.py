@@ -72,8 +72,8 @@ class CaseProbe:
                 warnings.simplefilter("ignore")
                 load_case_dict(apply_values(self.raw, {path: value}), source_path=self.source_path,
                                case_dir=self.case_dir)
-        except (CaseError, ValueError) as err:
-            lines = err.problems if isinstance(err, CaseError) else [str(err)]
+        except (CaseError, ValueError, ArithmeticError) as err:   # overflow of an extreme value: refused too
+            lines = err.problems if isinstance(err, CaseError) else [f"{type(err).__name__}: {err}"]
             prefix = f"{self.source_path}: "
             return "; ".join(line[len(prefix):] if self.source_path and line.startswith(prefix) else line
                              for line in lines)
