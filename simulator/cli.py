@@ -26,8 +26,9 @@ def _execution_options(p):
                    help="Dask scheduler address, e.g. tcp://10.0.0.5:8786 (default: local process pool)")
     p.add_argument("--batch-size", type=int, default=None, help="cases per task (default: automatic, >= 25)")
     p.add_argument("--engine", choices=("auto", "compiled", "pool"), default="auto",
-                   help="auto: the compiled batch integrator when every varied path is an operating number it "
-                        "supports and no --scheduler is given, else the process pool / Dask (default auto)")
+                   help="auto: the compiled batch integrator when every varied (sweep) or sampled (uncertainty) "
+                        "path is an operating number it supports and no --scheduler is given, else the process "
+                        "pool / Dask (default auto); the engine that ran is printed")
 
 
 def build_parser():
@@ -234,89 +235,90 @@ def _raw_case(path):
     return tomllib.loads(Path(path).read_text(encoding="utf-8")), str(Path(path).resolve().parent)
 
 
+#: Cases from which sweep and uncertainty say at once what they are doing (start-up takes seconds).
+_LONG_RUN = 1000
+
+
+def _long_run_on_terminal(n_cases):
+    """True for a long run watched on a terminal: say at once what it does (logs keep one-line errors)."""
+    isatty = getattr(sys.stderr, "isatty", None)
+    return n_cases >= _LONG_RUN and bool(isatty and isatty())
+
+
+def _interrupted(args):
+    """Ctrl-C in a sweep or uncertainty run: what is kept, and the command that resumes it."""
+    print(f"interrupted: the finished cases are stored in {args.out}/results.sqlite; "
+          f"the same command resumes where it stopped: {_command_line()}", file=sys.stderr)
+    return 130
+
+
 def _sweep(args):
-    from simulator.case.load import load_case
-    from simulator.errors import CaseError
-    from simulator.model.build import build_model
-    from simulator.report.sweep_plots import write_sweep_figures
-    from simulator.sweeps.compiled_sweep import compiled_supported, run_compiled_sweep
-    from simulator.sweeps.evaluator import TubeEvaluator
-    from simulator.sweeps.execute import run_grid_sweep
     from simulator.sweeps.paths import parse_vary
 
-    raw, case_dir = _raw_case(args.case)
     specs = [parse_vary(v) for v in args.vary]
-    paths = [spec.path for spec in specs]
-    _check_vary_values(raw, case_dir, specs, args.case)
-    engine = args.engine
-    if engine != "pool":
-        model = build_model(load_case(args.case))
-        ok = args.scheduler is None and compiled_supported(model, paths)
-        if engine == "compiled" and not ok:
-            from simulator.sweeps.fast import unsupported_reason
+    n_cases = 1
+    for spec in specs:
+        n_cases *= len(spec.values_si)
+    if _long_run_on_terminal(n_cases):   # at once: loading Cantera and building the model take seconds
+        print(f"sweep: {n_cases} cases; checking the case and the values, then building the model",
+              file=sys.stderr, flush=True)
+    from simulator.case.load import load_case
+    from simulator.report.sweep_plots import write_sweep_figures
+    from simulator.sweeps.compiled_sweep import run_compiled_sweep
+    from simulator.sweeps.engine import choose_engine
+    from simulator.sweeps.evaluator import TubeEvaluator
+    from simulator.sweeps.execute import run_grid_sweep
+    from simulator.sweeps.validity import check_vary_values
 
-            why = "--scheduler sends cases to Dask" if args.scheduler else unsupported_reason(paths, model)
-            raise CaseError(f"--engine compiled: not available for this sweep ({why}); use --engine pool.")
-        engine = "compiled" if ok else "pool"
-    if engine == "compiled":
-        summary = run_compiled_sweep(raw, case_dir, specs, model, args.out, progress=True)
-    else:
-        summary = run_grid_sweep(raw, case_dir, specs, TubeEvaluator(), args.out, scheduler=args.scheduler,
-                                 batch_size=args.batch_size, progress=True)
+    raw, case_dir = _raw_case(args.case)
+    check_vary_values(raw, case_dir, specs, args.case)
+    engine, model = choose_engine(args.engine, load_case(args.case), [spec.path for spec in specs], args.scheduler)
+    try:
+        if engine == "compiled":
+            summary = run_compiled_sweep(raw, case_dir, specs, model, args.out, progress=True)
+        else:
+            summary = run_grid_sweep(raw, case_dir, specs, TubeEvaluator(), args.out, scheduler=args.scheduler,
+                                     batch_size=args.batch_size, progress=True)
+    except KeyboardInterrupt:
+        return _interrupted(args)
     figures = write_sweep_figures(args.out, raw)
     unit = "threads" if engine == "compiled" else "workers"
+    invalid = f", {summary.invalid} invalid (refused by the case)" if summary.invalid else ""
     print(f"{summary.total} cases ({engine} engine): {summary.computed} computed now, {summary.skipped} already "
-          f"done, {summary.failed} failed; {summary.elapsed:.1f} s on {summary.workers} {unit}")
+          f"done, {summary.failed} failed{invalid}; {summary.elapsed:.1f} s on {summary.workers} {unit}")
     for path in figures:
         print(f"figure: {path}")
     print(f"results: {args.out}/results.csv, {args.out}/results.sqlite")
     return 0
 
 
-def _check_vary_values(raw, case_dir, specs, case_path):
-    """Every value of every --vary, applied alone to the case, must give a valid case (all problems at once)."""
-    from simulator.case.load import load_case_dict
-    from simulator.errors import CaseError
-    from simulator.sweeps.paths import apply_values, check_vary
-
-    problems = []
-    raw = dict(raw, design={k: v for k, v in raw.get("design", {}).items() if k != "temperature_limit"})
-    for spec in specs:
-        check_vary(raw, spec)
-        for value, text in zip(spec.values_si, spec.values_text):
-            try:
-                load_case_dict(apply_values(raw, {spec.path: float(value)}), source_path=str(case_path),
-                               case_dir=case_dir)
-            except (CaseError, ValueError) as err:
-                lines = err.problems if isinstance(err, CaseError) else [str(err)]
-                problems.append(f"--vary {spec.path} = {text}: " + "; ".join(
-                    line.split(": ", 1)[-1] for line in lines))
-    if problems:
-        raise CaseError(problems[:20] + ([f"... and {len(problems) - 20} more"] if len(problems) > 20 else []))
-
-
 def _uncertainty(args):
-    from simulator.sweeps.execute import run_uncertainty
-    from simulator.sweeps.evaluator import TubeEvaluator
+    if _long_run_on_terminal(args.samples):
+        print(f"uncertainty: {args.samples} samples; checking the case and the distributions, then building the "
+              "model", file=sys.stderr, flush=True)
+    from simulator.case.load import load_case
     from simulator.report.sweep_plots import write_uncertainty_figure
+    from simulator.sweeps.engine import choose_engine
+    from simulator.sweeps.evaluator import TubeEvaluator
+    from simulator.sweeps.execute import run_uncertainty
+    from simulator.sweeps.sampling import format_summary
 
     raw, case_dir = _raw_case(args.case)
     if not raw.get("uncertainty"):
         from simulator.errors import CaseError
 
         raise CaseError(f"{args.case}: uncertainty: no [[uncertainty]] entries in the case.")
-    result = run_uncertainty(raw, case_dir, TubeEvaluator(), args.out, args.samples, seed=args.seed,
-                             method=args.method, scheduler=args.scheduler, batch_size=args.batch_size,
-                             progress=True)
+    paths = [e.get("parameter") for e in raw["uncertainty"] if isinstance(e, dict)]
+    engine, model = choose_engine(args.engine, load_case(args.case), [p for p in paths if isinstance(p, str)],
+                                  args.scheduler)
+    try:
+        result = run_uncertainty(raw, case_dir, TubeEvaluator(), args.out, args.samples, seed=args.seed,
+                                 method=args.method, scheduler=args.scheduler, batch_size=args.batch_size,
+                                 progress=True, engine=engine, model=model, source_path=args.case)
+    except KeyboardInterrupt:
+        return _interrupted(args)
     figure = write_uncertainty_figure(args.out, raw, result)
-    p = result["probability_exceeding_limit"]
-    pct = result["percentiles"]["hot_spot_temperature_K"]
-    print(f"{result['samples']['used']} of {result['samples']['n']} samples used (seed {result['samples']['seed']})")
-    if p["estimate"] is not None:
-        lo, hi = p["interval"]
-        print(f"P(hot spot > {result['temperature_limit_K']:.1f} K) = {p['estimate']:.4f} "
-              f"({100 * p['confidence']:.0f} % interval {lo:.4f}-{hi:.4f}, {p['interval_method']})")
-    print("hot spot p5/p50/p95: " + ", ".join(f"{k} {v:.2f} K" for k, v in pct.items() if v is not None))
+    print(format_summary(result))
     print(f"figure: {figure}")
     return 0
 

@@ -143,3 +143,160 @@ def test_sweeps_accept_feed_temperatures_above_the_design_limit(cases_dir, tmp_p
     assert main(["sweep", str(cases_dir / "hydrogenation_cooled_packed_bed.toml"), "--vary",
                  "feed.temperature=600 K..700 K in 2", "--out", str(tmp_path), "--engine", "pool"]) == 0
     assert len(_rows(tmp_path / "results.csv")) == 2
+
+
+def _uncertain_case_file(cases_dir, tmp_path, entries, limit="1200 K"):
+    text = (cases_dir / CASE).read_text().replace('temperature_limit = "1200 K"', f'temperature_limit = "{limit}"')
+    for entry in entries:
+        text += "\n[[uncertainty]]\n" + "".join(f"{k} = {v}\n" for k, v in entry.items())
+    path = tmp_path / "u.toml"
+    path.write_text(text)
+    return path
+
+
+def test_uncertainty_runs_on_the_compiled_engine_and_says_so(cases_dir, tmp_path, capsys):
+    # before: --engine was accepted and ignored (every sample ran through the per-case pool)
+    path = _uncertain_case_file(cases_dir, tmp_path, [
+        {"parameter": '"heat.medium.temperature"', "distribution": '"uniform"', "low": '"620 K"', "high": '"632 K"'},
+        {"parameter": '"reactions.0.activation_energy"', "distribution": '"truncated-normal"', "std": '"0.5 kJ/mol"'},
+    ], limit="800 K")
+    base = ["uncertainty", str(path), "--samples", "24", "--seed", "4"]
+    assert main(base + ["--out", str(tmp_path / "auto")]) == 0
+    assert "compiled engine" in capsys.readouterr().out
+    assert main(base + ["--out", str(tmp_path / "pool"), "--engine", "pool"]) == 0
+    auto = json.loads((tmp_path / "auto" / "uncertainty.json").read_text())
+    pool = json.loads((tmp_path / "pool" / "uncertainty.json").read_text())
+    assert (auto["engine"], pool["engine"]) == ("compiled", "pool")
+    rows_c = {r["case_id"]: r for r in _rows(tmp_path / "auto" / "results.csv")}
+    rows_p = {r["case_id"]: r for r in _rows(tmp_path / "pool" / "results.csv")}
+    assert rows_c.keys() == rows_p.keys() and len(rows_p) == 24
+    for cid, r in rows_p.items():       # same samples, same statuses, hot spots within the 0.05 K bound
+        assert rows_c[cid]["status"] == r["status"]
+        assert float(rows_c[cid]["hot_spot_temperature_K"]) == pytest.approx(float(r["hot_spot_temperature_K"]),
+                                                                             abs=0.05)
+    code = main(base + ["--out", str(tmp_path / "x"), "--engine", "compiled"])
+    assert code == 0
+
+
+def test_uncertainty_refuses_a_normal_that_reaches_far_into_refused_values(cases_dir, tmp_path, capsys):
+    path = _uncertain_case_file(cases_dir, tmp_path, [
+        {"parameter": '"heat.overall_coefficient"', "distribution": '"normal"', "std": '"60 W/(m^2*K)"'},
+    ])
+    assert main(["uncertainty", str(path), "--samples", "8", "--out", str(tmp_path / "o")]) == 2
+    err = capsys.readouterr().err
+    assert f"error: {path}: uncertainty.0: a normal distribution of heat.overall_coefficient" in err
+    assert '"truncated-normal"' in err and "Traceback" not in err
+    assert not (tmp_path / "o" / "results.sqlite").exists()
+
+
+def test_a_sweep_into_a_folder_in_use_exits_2_naming_the_process(cases_dir, tmp_path, capsys):
+    import socket
+    import subprocess
+    import sys
+
+    from simulator.sweeps.lock import LOCK_NAME
+
+    out = tmp_path / "busy"
+    out.mkdir()
+    holder = subprocess.Popen([sys.executable, "-c", "import time; time.sleep(60)"])
+    try:
+        (out / LOCK_NAME).write_text(json.dumps({"pid": holder.pid, "host": socket.gethostname(),
+                                                 "command": "sweep"}))
+        code = main(["sweep", str(cases_dir / CASE), "--vary", "heat.medium.temperature=620 K..625 K in 2",
+                     "--out", str(out)])
+    finally:
+        holder.kill()
+        holder.wait()
+    err = capsys.readouterr().err
+    assert code == 2 and f"in use by process {holder.pid}" in err and "Traceback" not in err
+
+
+def test_an_interrupted_sweep_prints_the_command_that_resumes_it(cases_dir, tmp_path, capsys, monkeypatch):
+    import simulator.sweeps.compiled_sweep as compiled_sweep
+
+    def interrupted(*args, **kwargs):
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr(compiled_sweep, "run_compiled_sweep", interrupted)
+    argv = ["sweep", str(cases_dir / CASE), "--vary", "heat.medium.temperature=620 K..625 K in 2",
+            "--out", str(tmp_path / "o")]
+    assert main(argv) == 130
+    err = capsys.readouterr().err
+    assert "the same command resumes where it stopped: tubesim sweep " in err
+    assert "'heat.medium.temperature=620 K..625 K in 2'" in err
+
+
+def test_exceedance_figure_states_the_samples_and_what_was_left_out(cases_dir, tmp_path):
+    path = _uncertain_case_file(cases_dir, tmp_path, [
+        {"parameter": '"heat.medium.temperature"', "distribution": '"uniform"', "low": '"620 K"', "high": '"640 K"'},
+    ], limit="800 K")
+    assert main(["uncertainty", str(path), "--samples", "16", "--seed", "2", "--out", str(tmp_path / "f")]) == 0
+    data = json.loads((tmp_path / "f" / "uncertainty.json").read_text())
+    p = data["probability_exceeding_limit"]
+    svg = (tmp_path / "f" / "exceedance.svg").read_text()
+    assert f"16 samples; curve and probability over {p['n']} runs; left out: nothing" in svg
+    assert f"= {p['exceeding']}/{p['n']} = " in svg
+
+
+@pytest.mark.parametrize("verb, extra, message", [
+    ("uncertainty", ["--seed", "-1"], "--seed -1: must be a whole number from 0"),       # before: numpy traceback
+    ("uncertainty", ["--batch-size", "0", "--engine", "pool"], "--batch-size 0: must be a whole number >= 1"),
+    ("uncertainty", ["--samples", "20000000"], "--samples 20000000: at most 10000000 samples"),
+    ("sweep", ["--batch-size", "0", "--engine", "pool"], "--batch-size 0: must be a whole number >= 1"),
+    ("sweep", ["--vary", "heat.medium.temperature=620 K..640 K in 2000000000"], "at most 10000000 values"),
+])
+def test_bad_sweep_options_exit_2_with_one_line_and_write_nothing(cases_dir, tmp_path, capsys, verb, extra, message):
+    path = _uncertain_case_file(cases_dir, tmp_path, [
+        {"parameter": '"heat.medium.temperature"', "distribution": '"uniform"', "low": '"620 K"', "high": '"640 K"'},
+    ])
+    out = tmp_path / "out"
+    argv = [verb, str(path), "--out", str(out)]
+    argv += ["--samples", "4"] if verb == "uncertainty" and "--samples" not in extra else []
+    argv += ["--vary", "heat.medium.temperature=620 K..640 K in 2"] if verb == "sweep" and "--vary" not in extra else []
+    assert main(argv + extra) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 1 and err[0].startswith("error: ") and message in err[0]
+    assert not out.exists()
+
+
+def test_compiled_engine_stores_values_outside_the_accepted_range_as_invalid(cases_dir, tmp_path):
+    # the per-case engine's loader refuses such a sample; the compiled engine must not solve it either
+    from simulator.case.load import load_case
+    from simulator.model.build import build_model
+    from simulator.sweeps.compiled_sweep import run_compiled_cases
+    from simulator.sweeps.store import ResultsStore
+
+    model = build_model(load_case(cases_dir / CASE))
+    path = "heat.medium.temperature"
+    cases = [(0, {path: 620.0}), (1, {path: 700.0}), (2, {path: 625.0})]
+    ranges = {path: {"accepted_low": 600.0, "accepted_high": 650.0, "accepted_low_as_written": "600 K",
+                     "accepted_high_as_written": "650 K"}}
+    with ResultsStore(tmp_path / "r.sqlite", [path]) as store:
+        run_compiled_cases(str(cases_dir), cases, [path], model, store, progress=False, ranges=ranges)
+        rows = store.rows()
+    assert [r["status"] for r in rows] == ["completed", "invalid", "completed"]
+    assert rows[1]["error"] == "outside the range the case accepts: heat.medium.temperature above 650 K"
+    assert rows[1]["hot_spot_temperature_K"] is None
+
+
+def test_uncertainty_without_a_temperature_limit_says_what_it_needs(cases_dir, tmp_path, capsys):
+    # before: "design.temperature_limit: no field 'temperature_limit' in design; valid: ..."
+    path = _uncertain_case_file(cases_dir, tmp_path, [
+        {"parameter": '"heat.medium.temperature"', "distribution": '"uniform"', "low": '"620 K"', "high": '"640 K"'},
+    ])
+    path.write_text(path.read_text().replace('temperature_limit = "1200 K"\n', ""))
+    assert main(["uncertainty", str(path), "--samples", "4", "--out", str(tmp_path / "o")]) == 2
+    err = capsys.readouterr().err
+    assert f"error: {path}: design.temperature_limit: missing; uncertainty estimates the probability" in err
+
+
+@pytest.mark.parametrize("engine", ["compiled", "pool"])
+def test_a_furnace_hotter_than_the_feed_plus_500_k_is_no_runaway(cases_dir, tmp_path, engine):
+    # before: the guard T_feed + 3 dT_ad + 500 K = 1450 K stopped the endothermic heated coil with a
+    # 1600 K furnace as a "runaway"; the gas heated by the medium must run to the outlet
+    out = tmp_path / engine
+    assert main(["sweep", str(cases_dir / "dehydrogenation_heated_tube.toml"), "--vary",
+                 "heat.medium.temperature=1600 K..1700 K in 2", "--out", str(out), "--engine", engine]) == 0
+    rows = _rows(out / "results.csv")
+    assert [r["status"] for r in rows] == ["completed", "completed"]
+    assert all(1450.0 < float(r["hot_spot_temperature_K"]) < float(r["heat.medium.temperature"]) for r in rows)

@@ -90,6 +90,31 @@ class ClosedFormEvaluator:
                 "outlet_pressure_Pa": parse_quantity(raw["feed"]["pressure"], "pressure", "feed.pressure") - 1e4}
 
 
+class ClosedFormProbe:
+    """TEST STAND-IN FOR THE CASE LOADER: refuses T_c <= 0 K and a negative pre-exponential."""
+
+    def __init__(self):
+        self.loads = 0
+
+    def refusal(self, path, value):
+        self.loads += 1
+        if path == "heat.medium.temperature" and value <= 0:
+            return f"heat.medium.temperature = '{value!r} K': must be > 0."
+        if path == "reactions.0.pre_exponential" and value < 0:
+            return f"reactions.0.pre_exponential = '{value!r} 1/s': must be >= 0."
+        return None
+
+
+class RefusingEvaluator(ClosedFormEvaluator):
+    """The closed-form evaluator, refusing a negative pre-exponential as the case loader does."""
+
+    def __call__(self, raw, case_dir):
+        k = parse_quantity(raw["reactions"][0]["pre_exponential"], "1/s", "reactions.0.pre_exponential")
+        if k < 0:
+            raise CaseError(f"reactions.0.pre_exponential = {raw['reactions'][0]['pre_exponential']!r}: must be >= 0.")
+        return super().__call__(raw, case_dir)
+
+
 def _calls(log_dir, tag):
     lines = []
     for path in Path(log_dir).glob(f"{tag}-*.log"):
@@ -437,15 +462,41 @@ def test_parse_uncertainty_reports_every_problem():
         sampling.parse_uncertainty(raw["uncertainty"], raw)
     problems = info.value.problems
     assert len(problems) == 7
-    assert "uncertainty[0].std = '2 bar': wrong dimension" in problems[0]
-    assert "choose one of: normal, lognormal, uniform. Did you mean 'normal'?" in problems[1]
-    assert "uncertainty[2].factor = 0.5: a plain number > 1" in problems[2]
-    assert "uncertainty[3].high: missing" in problems[3]
+    # one-line style of the case loader: field path with dots, the value as written, what is accepted
+    assert problems[0] == ("uncertainty.0.std = '2 bar': the unit bar does not convert to the unit of "
+                           "heat.medium.temperature ('600 K'); expected a temperature difference, "
+                           'e.g. "2 K" or "2 delta_degC"')
+    assert "choose one of: normal, lognormal, uniform, truncated-normal. Did you mean 'normal'?" in problems[1]
+    assert "uncertainty.2.factor = 0.5: a plain number > 1" in problems[2]
+    assert "uncertainty.3.high: missing" in problems[3]
     assert "temperature difference" in problems[4]
     assert "whole-number field" in problems[5]
-    assert "uncertainty[6].sdt: unknown key" in problems[6] and "Did you mean 'std'?" in problems[6]
-    with pytest.raises(CaseError, match=r"uncertainty\[0\]\.std = '2 bar': wrong dimension"):
+    assert "uncertainty.6.sdt: unknown key" in problems[6] and "Did you mean 'std'?" in problems[6]
+    assert not any("[" in line for line in problems)         # no raw pint dimensions, no [0] indices
+    with pytest.raises(CaseError, match=r"^uncertainty\.0\.std = '2 bar': the unit bar"):
         sampling.parse_uncertainty(raw["uncertainty"][:1], raw)
+
+
+def test_uncertainty_unit_errors_name_the_unit_of_a_composite_field_in_words():
+    # before: "wrong dimension ([mass] * [length] ** 2 / ...); expected dimension 1 / [time]"
+    raw = _uncertain_case([
+        {"parameter": "reactions.0.pre_exponential", "distribution": "uniform", "low": "1 kJ/mol", "high": 2e7},
+        {"parameter": "reactions.0.activation_energy", "distribution": "truncated-normal", "std": "2 kJ/mol",
+         "low": "90 kJ/mol", "factor": 2},
+    ])
+    with pytest.raises(CaseError) as info:
+        sampling.parse_uncertainty(raw["uncertainty"], raw)
+    problems = info.value.problems
+    assert problems[0] == ("uncertainty.0.low = '1 kJ/mol': the unit kJ / mol does not convert to the unit of "
+                           "reactions.0.pre_exponential ('1e7 1/s'); expected units that convert to 1/s, "
+                           'e.g. "1 1/s"')
+    assert problems[1].startswith("uncertainty.1.factor = 2: not used by a truncated-normal distribution; "
+                                  "it takes std, low, high")
+    raw["uncertainty"] = raw["uncertainty"][1:]
+    del raw["uncertainty"][0]["factor"]
+    with pytest.raises(CaseError, match=r"^uncertainty\.0: the case value reactions\.0\.activation_energy = "
+                                        r"'80 kJ/mol' must lie between low and high"):
+        sampling.parse_uncertainty(raw["uncertainty"], raw)
 
 
 def test_normal_and_lognormal_samples_follow_their_definitions():
@@ -504,7 +555,8 @@ def test_monte_carlo_known_answer_and_resume_with_recorded_seed(tmp_path):
         {"parameter": "reactions.0.activation_energy", "distribution": "normal", "std": "2 kJ/mol"},
     ])
     out = tmp_path / "mc"
-    result = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(tmp_path, "mc"), out, 200, progress=False)
+    result = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(tmp_path, "mc"), out, 200, progress=False,
+                             probe=ClosedFormProbe())
     p = result["probability_exceeding_limit"]
     lo, hi = p["interval"]
     assert lo < 0.25 < hi and hi - lo < 0.15
@@ -521,18 +573,182 @@ def test_monte_carlo_known_answer_and_resume_with_recorded_seed(tmp_path):
     assert ResultsStore.read_meta(out / "results.sqlite")["seed"] == seed
     assert (out / "uncertainty.json").exists() and (out / "results.csv").exists()
     # rerun without a seed: the stored seed is reused, nothing is recomputed
-    again = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(tmp_path, "mc-again"), out, 200, progress=False)
+    again = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(tmp_path, "mc-again"), out, 200, progress=False,
+                            probe=ClosedFormProbe())
     assert again["samples"]["seed"] == seed and again["run"]["computed"] == 0
     assert again["probability_exceeding_limit"] == p and _calls(tmp_path, "mc-again") == []
     with pytest.raises(ResumeError, match=r"meta seed"):
-        run_uncertainty(raw, tmp_path, ClosedFormEvaluator(), out, 200, seed=seed + 1, progress=False)
+        run_uncertainty(raw, tmp_path, ClosedFormEvaluator(), out, 200, seed=seed + 1, progress=False,
+                        probe=ClosedFormProbe())
     # Sobol' design through an executor passed in (threads here): same known answer
     with cf.ThreadPoolExecutor(2) as pool:
         sob = run_uncertainty(raw, tmp_path, ClosedFormEvaluator(), tmp_path / "sobol", 256, seed=3,
-                              method="sobol", executor=pool, progress=False)
+                              method="sobol", executor=pool, progress=False, probe=ClosedFormProbe())
     lo, hi = sob["probability_exceeding_limit"]["interval"]
     assert lo < 0.25 < hi
     assert sob["probability_exceeding_limit"]["estimate"] == pytest.approx(0.25, abs=0.02)
+
+
+# -- truncated normal, refused distributions, invalid samples, bookkeeping ------------------------------
+def test_truncated_normal_samples_follow_the_closed_form_cdf():
+    # Analytic: the CDF of N(mu, sigma) cut to [a, b] is (Phi(z) - Phi(alpha)) / (Phi(beta) - Phi(alpha)),
+    # z = (x - mu)/sigma, written out here with the standard normal CDF (scipy.special.ndtr), not truncnorm.
+    # Inverse-CDF mapping of a Latin hypercube puts one sample in each 1/n stratum of that CDF,
+    # so the Kolmogorov-Smirnov distance is at most 1/n (a property of the design, no sampling error).
+    from scipy.special import ndtr
+    from scipy.stats import norm
+
+    from simulator.sweeps.uncertain_ranges import checked_against_loader
+
+    raw = _uncertain_case([
+        {"parameter": "reactions.0.pre_exponential", "distribution": "truncated-normal", "std": "1.2e7 1/s"},
+        {"parameter": "heat.medium.temperature", "distribution": "truncated-normal", "std": "30 K",
+         "low": "590 K", "high": "650 K"},
+    ])
+    specs = sampling.parse_uncertainty(raw["uncertainty"], raw)
+    base = sampling.base_values(specs, raw)
+    specs, ranges = checked_against_loader(specs, base, raw, ClosedFormProbe())
+    assert specs[0].low == pytest.approx(0.0, abs=1e7 * 1e-6) and specs[0].high == math.inf  # the accepted range
+    assert ranges["reactions.0.pre_exponential"]["share_outside"] < 1e-6
+    n = 4000
+    x = sampling.sample(specs, base, n, seed=3)
+    for j, (mu, sigma) in enumerate([(1e7, 1.2e7), (600.0, 30.0)]):
+        a, b = specs[j].low, specs[j].high
+        alpha, beta = (a - mu) / sigma, (b - mu) / sigma
+
+        def cdf(v):
+            return (ndtr((v - mu) / sigma) - ndtr(alpha)) / (ndtr(beta) - ndtr(alpha))
+
+        v = np.sort(x[:, j])
+        assert v[0] >= a and v[-1] <= b
+        F = cdf(v)
+        ks = max(np.max(np.arange(1, n + 1) / n - F), np.max(F - np.arange(n) / n))
+        assert ks <= 1.0 / n + 1e-9
+        # mean of a truncated normal: mu + sigma (phi(alpha) - phi(beta)) / (Phi(beta) - Phi(alpha))
+        mean = mu + sigma * (norm.pdf(alpha) - norm.pdf(beta)) / (ndtr(beta) - ndtr(alpha))
+        assert v.mean() == pytest.approx(mean, rel=1e-3)
+
+
+def test_a_distribution_with_much_mass_where_the_case_is_refused_is_refused():
+    # before: the negative draws ran, failed and were silently left out of P(exceed)
+    from simulator.sweeps.uncertain_ranges import checked_against_loader
+
+    raw = _uncertain_case([{"parameter": "reactions.0.pre_exponential", "distribution": "normal", "std": "1e7 1/s"}])
+    specs = sampling.parse_uncertainty(raw["uncertainty"], raw)
+    with pytest.raises(CaseError) as info:
+        checked_against_loader(specs, sampling.base_values(specs, raw), raw, ClosedFormProbe())
+    (line,) = info.value.problems
+    # share below 0 of N(1e7, 1e7) is Phi(-1) = 15.87 % (analytic)
+    assert line.startswith("uncertainty.0: a normal distribution of reactions.0.pre_exponential (std = '1e7 1/s') "
+                           "puts 15.9 % of its samples where the case is refused (below 0 1/s: must be >= 0)")
+    assert "at most 0.1 % is accepted" in line and '"lognormal"' in line and '"truncated-normal"' in line
+    # a truncated normal keeps the bounds it is given: cut at -1e7 1/s it still reaches below zero
+    # (share below 0 of N(1e7, 1e7) cut to [-1e7, inf): (Phi(-1) - Phi(-2)) / (1 - Phi(-2)) = 13.9 %)
+    raw["uncertainty"] = [{"parameter": "reactions.0.pre_exponential", "distribution": "truncated-normal",
+                           "std": "1e7 1/s", "low": "-1e7 1/s"}]
+    specs = sampling.parse_uncertainty(raw["uncertainty"], raw)
+    with pytest.raises(CaseError, match=r"puts 13\.9 % of its samples where the case is refused"):
+        checked_against_loader(specs, sampling.base_values(specs, raw), raw, ClosedFormProbe())
+
+
+def test_invalid_samples_are_counted_and_the_probability_states_its_denominator(tmp_path):
+    # N(1e7, 3.2e6): Phi(-3.125) = 0.089 % below 0, under the 0.1 % limit, so the run goes ahead.
+    # A Latin hypercube of n = 5000 has exactly floor or ceil of 5000 * 0.00089 = 4.45 samples there.
+    raw = _uncertain_case([
+        {"parameter": "heat.medium.temperature", "distribution": "uniform", "low": "600 K", "high": "700 K"},
+        {"parameter": "reactions.0.pre_exponential", "distribution": "normal", "std": "3.2e6 1/s"},
+    ])
+    out = tmp_path / "mc"
+    result = run_uncertainty(raw, tmp_path, RefusingEvaluator(), out, 5000, seed=2, progress=False,
+                             probe=ClosedFormProbe(), batch_size=500)
+    s, p = result["samples"], result["probability_exceeding_limit"]
+    summary = run_grid_sweep(_uncertain_case([]), tmp_path, ["reactions.0.pre_exponential=-1 1/s..1 1/s in 3"],
+                             RefusingEvaluator(), tmp_path / "grid", progress=False)
+    assert (summary.computed, summary.failed, summary.invalid) == (3, 0, 1)     # -1 1/s: refused, not failed
+    assert s["invalid"] in (4, 5) and s["failed"] == 0 and s["valid"] == 5000 - s["invalid"]
+    assert s["invalid_reasons"] == [{"reason": "reactions.0.pre_exponential below 0 1/s", "count": s["invalid"]}]
+    assert p["denominator"] == p["n"] == 5000 - s["invalid"]
+    assert p["left_out"] == {"invalid": s["invalid"], "failed": 0, "stopped_below_limit": 0, "without_hot_spot": 0}
+    # the invalid rows are stored as such, with the loader's reason, not as failed runs
+    with ResultsStore(out / "results.sqlite", ["heat.medium.temperature", "reactions.0.pre_exponential"]) as store:
+        invalid = [r for r in store.rows() if r["status"] == "invalid"]
+    assert len(invalid) == s["invalid"] and all(r["reactions.0.pre_exponential"] < 0 for r in invalid)
+    assert all(r["error"].startswith("CaseError: reactions.0.pre_exponential") for r in invalid)
+    text = sampling.format_summary(result)
+    assert f"left out: {s['invalid']} invalid" in text and f"/{p['denominator']} " in text
+
+
+def _row(status, hot, cid):
+    return {"case_id": cid, "status": status, "hot_spot_temperature_K": hot, "outlet_conversion": 0.5,
+            "heat.medium.temperature": 600.0 + cid, "error": None}
+
+
+def test_summary_counts_every_status_and_stopped_runs_exceed():
+    # bookkeeping rule (EXCEEDANCE_RULE): stopped at the guard above the limit -> exceeding;
+    # failed, stopped below the limit and invalid -> left out, counted, and bracketed
+    rows = ([_row("completed", 700.0, i) for i in range(6)] + [_row("completed", 760.0, 6)]
+            + [_row("stopped", 1900.0, 7), _row("stopped", 1900.0, 8)]       # runaway guard
+            + [_row("stopped", 720.0, 9)]                                     # pressure floor, below the limit
+            + [_row("failed", None, 10), _row("invalid", None, 11)])
+    specs = sampling.parse_uncertainty([{"parameter": "heat.medium.temperature", "distribution": "normal",
+                                         "std": "2 K"}], BASE_CASE)
+    result = sampling.summarize(rows, specs, 750.0, seed=1, method="lhs")
+    p, s = result["probability_exceeding_limit"], result["samples"]
+    assert (p["exceeding"], p["denominator"], p["estimate"]) == (3, 9, 3 / 9)
+    assert p["denominator_counts"] == {"completed": 7, "stopped_at_guard_counted_exceeding": 2}
+    assert p["left_out"] == {"invalid": 1, "failed": 1, "stopped_below_limit": 1, "without_hot_spot": 0}
+    assert p["if_left_out_exceeded"] == [3 / 11, 5 / 11]
+    assert (s["n"], s["valid"], s["invalid"], s["failed"], s["stopped"], s["completed"]) == (12, 11, 1, 1, 3, 7)
+    assert result["percentiles"]["hot_spot_temperature_K"]["p50"] == 700.0   # over the 9 runs of the denominator
+
+
+# -- --vary values checked as an array -------------------------------------------------------------------
+def test_twenty_thousand_values_are_classified_with_a_few_loads():
+    # before: one case load per value (20 000 loads, about a minute); now the ends, nine interior
+    # values, the one nearest zero and a bisection for each refused side
+    from simulator.sweeps.validity import refused_values
+
+    probe = ClosedFormProbe()
+    values = list(np.linspace(-10.0, 460.0, 20000))
+    refused, reasons = refused_values(probe, "heat.medium.temperature", values)
+    assert list(refused) == [i for i, v in enumerate(values) if v <= 0]
+    assert probe.loads <= 30
+    assert set(reasons) <= set(refused.tolist()) and reasons[0].endswith("must be > 0.")
+    probe = ClosedFormProbe()
+    refused, reasons = refused_values(probe, "heat.medium.temperature", list(np.linspace(300.0, 460.0, 20000)))
+    assert refused.size == 0 and reasons == {} and probe.loads == 11
+
+
+# -- one run per output folder ----------------------------------------------------------------------
+def test_a_second_run_into_the_same_folder_is_refused_while_the_first_runs(tmp_path):
+    # before: the second run inserted the same case ids and died with sqlite3.IntegrityError
+    from simulator.sweeps.lock import LOCK_NAME, FolderInUseError, folder_lock
+
+    holder = subprocess.Popen([sys.executable, "-c", "import time; time.sleep(60)"])
+    try:
+        (tmp_path / "out").mkdir()
+        (tmp_path / "out" / LOCK_NAME).write_text(
+            f'{{"pid": {holder.pid}, "host": "{__import__("socket").gethostname()}", "command": "sweep"}}')
+        with pytest.raises(FolderInUseError, match=rf"in use by process {holder.pid} \(sweep"):
+            run_grid_sweep(BASE_CASE, tmp_path, ["heat.medium.temperature=600 K..700 K in 3"],
+                           ClosedFormEvaluator(), tmp_path / "out", progress=False)
+        assert not (tmp_path / "out" / "results.sqlite").exists()
+    finally:
+        holder.kill()
+        holder.wait()
+    # the holder is gone: its lock is stale and is taken over; released at the end
+    summary = run_grid_sweep(BASE_CASE, tmp_path, ["heat.medium.temperature=600 K..700 K in 3"],
+                             ClosedFormEvaluator(), tmp_path / "out", progress=False)
+    assert summary.computed == 3 and not (tmp_path / "out" / LOCK_NAME).exists()
+    with folder_lock(tmp_path / "out"):
+        with pytest.raises(FolderInUseError, match=rf"in use by process {os.getpid()}"):
+            with folder_lock(tmp_path / "out"):
+                pass
+    # a live PID with another process start time: the PID was reused after the owner died, so stale
+    (tmp_path / "out" / LOCK_NAME).write_text(
+        f'{{"pid": {os.getpid()}, "host": "{__import__("socket").gethostname()}", "process_start": 1}}')
+    with folder_lock(tmp_path / "out") as lock:
+        assert f'"pid": {os.getpid()}' in lock.read_text() and '"process_start": 1,' not in lock.read_text()
 
 
 # -- progress ------------------------------------------------------------------------------------------
@@ -583,6 +799,9 @@ def test_progress_plain_lines_and_terminal_bar():
     assert "\rcases  [##########----------]   50/100   50%  25 cases/s  left 0:00:02" in tty.text
     assert tty.text.endswith("\n")
     assert format_duration(None) == "?"
+    fresh = _Stream(tty=False)              # a new run says so at once, before the first case finishes
+    Progress(stream=fresh, clock=clock).start(20000)
+    assert fresh.text == "cases: starting, 20000 to run\n"
 
 
 # -- Dask on loopback (kept last: it starts threads in this process) ---------------------------------------
@@ -599,3 +818,16 @@ def test_dask_cluster_gives_the_same_results_as_the_local_pool(tmp_path):
     assert (local.computed, remote.computed, remote.failed) == (120, 120, 40)
     assert remote.batches == 5 and remote.workers == 2
     assert (tmp_path / "local" / "results.csv").read_text() == (tmp_path / "dask" / "results.csv").read_text()
+
+
+def test_a_value_the_loader_overflows_on_is_a_refusal_not_a_traceback(monkeypatch):
+    # an extreme swept value may overflow inside unit parsing; the check reports it as refused
+    import simulator.case.load as load
+    from simulator.sweeps.validity import CaseProbe
+
+    def overflow(raw, source_path="", case_dir=None):
+        raise OverflowError(34, "Numerical result out of range")
+
+    monkeypatch.setattr(load, "load_case_dict", overflow)
+    probe = CaseProbe(BASE_CASE, ".", "case.toml")
+    assert probe.refusal("heat.medium.temperature", 1e300).startswith("OverflowError: ")

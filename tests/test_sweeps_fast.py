@@ -142,7 +142,23 @@ def test_values_the_loader_rejects_are_marked_and_take_the_normal_path():
     assert out["fallback"].tolist() == [True, True, False]
     assert [fast.STATUS_NAMES[s] for s in out["status"][:2]] == ["failed", "failed"]
     assert all("CaseError" in out["error"][i] for i in (0, 1))
+    assert out["invalid"].tolist() == [True, True, False]      # refused by the loader: invalid, not a failed run
     assert out["error"][2] is None and np.isfinite(out["hot_spot_temperature_K"][2])
+
+
+def test_runaway_guard_when_the_adiabatic_rise_has_no_root(monkeypatch):
+    # before: the ValueError of the root finder escaped the compiled sweep as a traceback
+    from simulator.model import adiabatic
+    from simulator.sweeps.compiled_sweep import _guards
+
+    base = _model(_raw(HYDRO), HYDRO)
+
+    def no_root(*args, **kwargs):
+        raise ValueError("The function value at x=6.7e-311 is NaN; solver cannot continue.")
+
+    monkeypatch.setattr(adiabatic, "adiabatic_rise", no_root)
+    y0 = np.tile(base.y0, (2, 1))
+    assert _guards(base, y0).tolist() == [base.y0[base.n] + 500.0] * 2
 
 
 # -- supported paths ---------------------------------------------------------------------------------

@@ -1,7 +1,7 @@
 """Plots of sweep and uncertainty results (SVG text, black-and-white readable)."""
 import numpy as np
 
-from simulator.report.plots import _literal, _new_figure, _rc
+from simulator.report.plots import _HEIGHT, _literal, _new_figure, _rc
 
 
 def _svg(fig):
@@ -63,17 +63,20 @@ def runaway_map_svg(x, y, rise, boundary_x, xlabel, ylabel, title, stopped=None)
         return _svg(fig)
 
 
-def exceedance_svg(hot_spots, limit, title):
+def exceedance_svg(hot_spots, limit, title, note=""):
     """Empirical exceedance curve P(T* > T) with the limit and p5/p50/p95 marked; returns SVG text.
 
     Parameters
     ----------
     hot_spots : ndarray
-        Hot-spot temperatures of the samples that ran, [K]
+        Hot-spot temperatures of the runs in the probability's denominator (runs stopped at
+        the runaway guard with their stop temperature), [K]
     limit : float
         Design temperature limit, [K]
     title : str
         Plot title, [-]
+    note : str
+        Lines printed under the axes: how many samples, what was left out, [-]
 
     Returns
     -------
@@ -83,13 +86,15 @@ def exceedance_svg(hot_spots, limit, title):
     T = np.sort(np.asarray(hot_spots, dtype=float))
     n = len(T)
     with _rc("exceedance"):
-        fig, ax = _new_figure()
+        fig, ax = _new_figure(height=_HEIGHT + 0.16 * len(note.splitlines()))
         if n:
             ax.step(T, 1.0 - np.arange(1, n + 1) / n, where="post", color="black", lw=1.4,
-                    label=f"P(T* > T), {n} samples")
+                    label=f"P(T* > T), {n} runs")
             for q, style in ((5, ":"), (50, "-."), (95, "--")):
                 v = np.percentile(T, q)
                 ax.axvline(v, color="0.35", ls=style, lw=1, label=f"p{q} = {v:.1f} K")
+        else:
+            ax.text(0.5, 0.5, "no run gave a hot spot", transform=ax.transAxes, ha="center", va="center")
         if np.isfinite(limit):
             ax.axvline(limit, color="black", lw=2, label=f"temperature limit {limit:.1f} K")
         ax.set_xlabel("Hot-spot temperature T [K]")
@@ -97,7 +102,38 @@ def exceedance_svg(hot_spots, limit, title):
         ax.set_ylim(-0.02, 1.02)
         ax.set_title(_literal(title, 80))
         ax.legend(loc="best", fontsize=7)
+        if note:          # a child of the axes, so the constrained layout makes room below the label
+            ax.text(0.0, -0.16, "\n".join(_literal(line, 110) for line in note.splitlines()),
+                    transform=ax.transAxes, fontsize=7, ha="left", va="top")
         return _svg(fig)
+
+
+def exceedance_note(result):
+    """Text under the exceedance figure: samples, the probability with its denominator, what was left out.
+
+    Parameters
+    ----------
+    result : dict
+        Content of ``uncertainty.json``.
+
+    Returns
+    -------
+    str
+        Two or three lines, [-]
+    """
+    samples = result["samples"]
+    p = result["probability_exceeding_limit"]
+    left = p.get("left_out", {})
+    left_text = ", ".join(f"{v} {k.replace('_', ' ')}" for k, v in left.items() if v) or "nothing"
+    lines = [f"{samples['n']} samples; curve and probability over {p['n']} runs; left out: {left_text}"]
+    if p["estimate"] is not None:
+        lo, hi = p["interval"]
+        lines.append(f"P(T* > {result['temperature_limit_K']:.1f} K) = {p['exceeding']}/{p['n']} = {p['estimate']:.4f} "
+                     f"({100 * p['confidence']:.0f} % interval {lo:.4f} to {hi:.4f})")
+    stopped = p.get("denominator_counts", {}).get("stopped_at_guard_counted_exceeding", 0)
+    if stopped:
+        lines.append(f"{stopped} runs stopped at the runaway guard count as exceeding (at their stop temperature)")
+    return "\n".join(lines)
 
 
 def _base_temperature(raw, path):
@@ -153,7 +189,7 @@ def write_sweep_figures(out_dir, raw):
         iy = {v: i for i, v in enumerate(ys)}
         for r in rows:
             i, j = iy[r[paths[1]]], ix[r[paths[0]]]
-            if r["hot_spot_temperature_K"] is not None and r["status"] != "failed":
+            if r["hot_spot_temperature_K"] is not None and r["status"] not in ("failed", "invalid"):
                 T[i, j] = r["hot_spot_temperature_K"]
                 rise[i, j] = T[i, j] - reference(r)
                 stopped[i, j] = r["status"] == "stopped"
@@ -162,7 +198,7 @@ def write_sweep_figures(out_dir, raw):
         written.append(atomic_write_text(out / "runaway_map.svg", svg))
     elif len(paths) == 1:
         pts = sorted((r[paths[0]], r["hot_spot_temperature_K"]) for r in rows
-                     if r["status"] != "failed" and r["hot_spot_temperature_K"] is not None)
+                     if r["status"] not in ("failed", "invalid") and r["hot_spot_temperature_K"] is not None)
         if len(pts) >= 2:
             x = np.array([p[0] for p in pts])
             T = np.array([p[1] for p in pts])
@@ -185,10 +221,12 @@ def write_uncertainty_figure(out_dir, raw, result):
     from simulator.fileio import atomic_write_text
     from simulator.sweeps.store import ResultsStore
 
+    from simulator.sweeps.sampling import split_for_exceedance
+
     out = Path(out_dir)
     varied = ResultsStore.read_meta(out / "results.sqlite").get("varied_paths", [])
     with ResultsStore(out / "results.sqlite", varied) as store:
-        hot = [r["hot_spot_temperature_K"] for r in store.rows()
-               if r["status"] != "failed" and r["hot_spot_temperature_K"] is not None]
-    svg = exceedance_svg(hot, result["temperature_limit_K"], raw.get("title", ""))
+        parts = split_for_exceedance(store.rows(), result["temperature_limit_K"])
+    hot = [r["hot_spot_temperature_K"] for r in parts["completed"] + parts["stopped_over"]]
+    svg = exceedance_svg(hot, result["temperature_limit_K"], raw.get("title", ""), note=exceedance_note(result))
     return atomic_write_text(out / "exceedance.svg", svg)

@@ -1,12 +1,14 @@
 """Grid sweeps through the compiled batch integrator, with the same store and resume as the pool.
 
-Used by ``tubesim sweep`` when every varied path is an operating number the
-compiled path supports (:func:`simulator.sweeps.fast.supports`) and no Dask
-scheduler is given. Cases run in chunks; each chunk is written to
+Used by ``tubesim sweep`` and ``tubesim uncertainty`` (one rule,
+:mod:`simulator.sweeps.engine`) when every varied or sampled path is an operating
+number the compiled path supports (:func:`simulator.sweeps.fast.supports`) and no Dask
+scheduler is given. Cases run in chunks, the first small (progress within about a
+second), then doubling up to :data:`CHUNK`; each chunk is written to
 ``results.sqlite`` in one transaction, so an interrupted run resumes where it
 stopped, by this engine or the process pool alike (the store's ``meta`` is the
 same). As for the pool evaluator, the design temperature limit does not stop a
-sweep run: the runaway guard T_feed + 3 dT_ad + 500 K does.
+sweep run: the runaway guard max(T_feed, T_medium) + 3 dT_ad + 500 K does.
 
 Tolerance: rtol 3e-6 with the case's scale-based absolute tolerance; the tests
 check agreement with per-case LSODA solves at rtol 1e-10 within 0.05 K on the
@@ -19,12 +21,15 @@ from pathlib import Path
 import numpy as np
 
 from simulator.sweeps.execute import RunSummary, grid_meta
+from simulator.sweeps.lock import folder_lock
 from simulator.sweeps.paths import check_vary, grid, parse_vary, VarySpec
 from simulator.sweeps.progress import Progress
 from simulator.sweeps.store import ResultsStore
 
 SWEEP_RTOL = 3e-6
 CHUNK = 5000
+#: Cases in the first chunk (progress shows within about a second, numba cache load included).
+FIRST_CHUNK = 250
 
 
 def compiled_supported(model, paths):
@@ -36,63 +41,154 @@ def compiled_supported(model, paths):
 
 def _guards(model, y0):
     """Runaway guard temperature of every case from its inlet state, [K]."""
-    from simulator.model.adiabatic import adiabatic_rise
+    from simulator.sweeps.evaluator import runaway_guard
 
     n = model.n
-    feeds, inverse = np.unique(y0[:, :n + 1], axis=0, return_inverse=True)
-    guard = np.empty(len(feeds))
-    for k, row in enumerate(feeds):
-        rise = adiabatic_rise(row[:n], row[n], model.args[4], model.key_index, model.args[2])[0]
-        guard[k] = row[n] + 3.0 * (rise if math.isfinite(rise) and rise > 0 else 0.0) + 500.0
+    feeds, inverse = np.unique(y0[:, :n + 3], axis=0, return_inverse=True)   # flows, T, P, medium T
+    guard = np.array([runaway_guard(model, row[:n], row[n], row[n + 2]) for row in feeds])
     return guard[np.asarray(inverse).ravel()]
 
 
 def run_compiled_sweep(base_raw, case_dir, vary, model, out_dir, progress=True):
-    """Full grid through :func:`simulator.sweeps.fast.batch_solve`; returns a RunSummary."""
-    from simulator.sweeps import fast
+    """Full grid through :func:`simulator.sweeps.fast.batch_solve`; returns a RunSummary.
 
-    started = time.perf_counter()
+    Holds the output folder's lock (:func:`simulator.sweeps.lock.folder_lock`) while it writes.
+    """
     specs = [spec if isinstance(spec, VarySpec) else parse_vary(spec) for spec in vary]
     for spec in specs:
         check_vary(base_raw, spec)
     cases = grid(specs)
     paths = [s.path for s in specs]
     out_dir = Path(out_dir)
-    with ResultsStore(out_dir / "results.sqlite", paths, grid_meta(base_raw, specs, cases)) as store:
-        done = store.done_ids()
-        pending = [(cid, values) for cid, values in cases if cid not in done]
-        bar = Progress(interactive=None) if progress else None
-        if bar:
-            bar.start(len(cases), done=len(cases) - len(pending))
-        failed = 0
-        for start in range(0, len(pending), CHUNK):
-            chunk = pending[start:start + CHUNK]
-            params = np.array([[values[p] for p in paths] for _, values in chunk], dtype=float)
-            packed = fast.pack_cases(model, params, paths)
-            out = fast.batch_solve(model, params, paths, rtol=SWEEP_RTOL, temperature_limit=_guards(model, packed.y0),
-                                   case_dir=str(case_dir))
-            rows = []
-            for k, (cid, values) in enumerate(chunk):
-                status = fast.STATUS_NAMES[int(out["status"][k])]
-                failed += status == "failed"
-                row = {"case_id": cid, **values, "status": status, "error": out["error"][k]}
-                for name in ("hot_spot_temperature_K", "hot_spot_position_m", "outlet_conversion",
-                             "outlet_temperature_K", "outlet_pressure_Pa"):
-                    value = float(out[name][k])
-                    row[name] = value if math.isfinite(value) and status != "failed" else None
-                if status == "stopped" and not row["error"]:
-                    row["error"] = (f"stopped at the runaway guard at z = {float(out['outlet_position_m'][k]):.6g} m; "
-                                    "the hot spot is a lower bound")
-                rows.append(row)
+    with folder_lock(out_dir, "sweep"), \
+            ResultsStore(out_dir / "results.sqlite", paths, grid_meta(base_raw, specs, cases)) as store:
+        summary = run_compiled_cases(case_dir, cases, paths, model, store, progress=progress)
+        store.export_csv(out_dir / "results.csv")
+    return summary
+
+
+def chunk_sizes(n, first=FIRST_CHUNK, largest=CHUNK):
+    """Cases per chunk: small at first so progress shows within a second, then doubling.
+
+    Examples
+    --------
+    >>> chunk_sizes(3000, first=250, largest=1000)
+    [250, 500, 1000, 1000, 250]
+    """
+    sizes, size, left = [], int(first), int(n)
+    while left > 0:
+        take = min(size, left)
+        sizes.append(take)
+        left -= take
+        size = min(2 * size, int(largest))
+    return sizes
+
+
+def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, label="cases", ranges=None):
+    """Solve ``(case_id, {path: value})`` cases on the compiled engine and store their rows.
+
+    Cases already in ``store`` are skipped (resume). Each chunk is one transaction.
+    A case the case loader refuses (values outside what it accepts) is stored with
+    status ``"invalid"`` and the loader's message; a run that reaches the runaway guard
+    is ``"stopped"``; a numerical failure is ``"failed"``.
+
+    Parameters
+    ----------
+    case_dir : str or Path
+        Folder of the case file (for fallback cases).
+    cases : list of (int, dict)
+        Case ids and values in SI units, as :func:`simulator.sweeps.paths.grid` gives them.
+    paths : list of str
+        The varied paths (keys of the values).
+    model : simulator.model.build.Model
+        Base model.
+    store : ResultsStore
+        Where rows go.
+    progress : bool
+        Show progress on stderr.
+    label : str
+        Word in front of the progress line.
+    ranges : dict, optional
+        Accepted range per path (:func:`simulator.sweeps.uncertain_ranges.checked_against_loader`):
+        a case with a value outside is stored as ``"invalid"`` without solving it, as the
+        case loader of the per-case engine would refuse it.
+
+    Returns
+    -------
+    RunSummary
+        Counts and timing.
+    """
+    from simulator.sweeps import fast
+
+    started = time.perf_counter()
+    done = store.done_ids()
+    pending = [(cid, values) for cid, values in cases if cid not in done]
+    bar = Progress(interactive=None, label=label) if progress else None
+    if bar:
+        bar.start(len(cases), done=len(cases) - len(pending), failed=store.count(status="failed") if done else 0)
+    failed = invalid = 0
+    sizes = chunk_sizes(len(pending))
+    start = 0
+    try:
+        for size in sizes:
+            chunk = pending[start:start + size]
+            start += size
+            rows = _outside_rows(chunk, ranges)
+            chunk = [(cid, values) for cid, values in chunk if cid not in rows]
+            if chunk:
+                params = np.array([[values[p] for p in paths] for _, values in chunk], dtype=float)
+                packed = fast.pack_cases(model, params, paths)
+                out = fast.batch_solve(model, params, paths, rtol=SWEEP_RTOL,
+                                       temperature_limit=_guards(model, packed.y0), case_dir=str(case_dir))
+                rows.update({cid: _row(out, k, cid, values) for k, (cid, values) in enumerate(chunk)})
+            rows = [rows[cid] for cid in sorted(rows)]
+            n_failed = sum(row["status"] == "failed" for row in rows)
+            failed += n_failed
+            invalid += sum(row["status"] == "invalid" for row in rows)
             store.write_rows(rows)
             if bar:
-                bar.update(len(chunk))
+                bar.update(len(rows), n_failed)
+    finally:
         if bar:
             bar.close()
-        store.export_csv(out_dir / "results.csv")
     return RunSummary(total=len(cases), skipped=len(cases) - len(pending), computed=len(pending), failed=failed,
-                      batches=math.ceil(len(pending) / CHUNK), batch_size=CHUNK,
-                      workers=_threads(), elapsed=time.perf_counter() - started)
+                      batches=len(sizes), batch_size=max(sizes, default=0),
+                      workers=_threads(), elapsed=time.perf_counter() - started, invalid=invalid)
+
+
+def _outside_rows(chunk, ranges):
+    """``{case_id: row}`` of the cases with a value outside its accepted range (status "invalid")."""
+    from simulator.sweeps.store import RESULT_FIELDS
+    from simulator.sweeps.uncertain_ranges import outside
+
+    rows = {}
+    for cid, values in chunk if ranges else ():
+        why = outside(ranges, values)
+        if why:
+            row = {name: None for name in RESULT_FIELDS}
+            row.update(values, case_id=cid, status="invalid",
+                       error="outside the range the case accepts: " + "; ".join(why))
+            rows[cid] = row
+    return rows
+
+
+def _row(out, k, cid, values):
+    """Store row of case ``k`` of a :func:`~simulator.sweeps.fast.batch_solve` result."""
+    from simulator.sweeps import fast
+
+    status = "invalid" if out["invalid"][k] else fast.STATUS_NAMES[int(out["status"][k])]
+    row = {"case_id": cid, **values, "status": status, "error": out["error"][k]}
+    for name in ("hot_spot_temperature_K", "hot_spot_position_m", "outlet_conversion",
+                 "outlet_temperature_K", "outlet_pressure_Pa"):
+        value = float(out[name][k])
+        row[name] = value if math.isfinite(value) and status not in ("failed", "invalid") else None
+    if status == "stopped" and not row["error"]:
+        where = f"z = {float(out['outlet_position_m'][k]):.6g} m"
+        row["error"] = {fast.STOP_TEMPERATURE: f"stopped at the runaway guard at {where}; the hot spot is a lower bound",
+                        fast.STOP_PRESSURE: f"stopped at {where}: the pressure fell below "
+                                            f"{100 * fast.PRESSURE_FLOOR:g} % of the feed pressure"}.get(
+            int(out["stop"][k]), f"stopped at {where}")
+    return row
 
 
 def _threads():

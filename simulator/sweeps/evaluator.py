@@ -7,8 +7,8 @@ task) and solves it.
 
 The design temperature limit does not stop sweep runs: a runaway map and an
 exceedance probability need the true hot spot. Runs stop only at an internal
-guard of T_feed + 3 dT_ad + 500 K (status "stopped"; its hot spot is then a
-lower bound, recorded as the guard temperature).
+guard of max(T_feed, T_medium) + 3 dT_ad + 500 K (status "stopped"; its hot spot
+is then a lower bound, recorded as the guard temperature).
 """
 import dataclasses
 import math
@@ -56,9 +56,38 @@ class TubeEvaluator:
 
 def _guard(case, model):
     """Internal runaway guard temperature, [K]."""
-    from simulator.model.adiabatic import adiabatic_rise
+    return runaway_guard(model, model.y0[:model.n], case.feed.temperature, model.y0[model.n + 2])
 
-    n = model.n
-    rise, _ = adiabatic_rise(model.y0[:n], case.feed.temperature, model.args[4], model.key_index, model.args[2])
-    rise = rise if math.isfinite(rise) and rise > 0 else 0.0
-    return case.feed.temperature + 3.0 * rise + 500.0
+
+def runaway_guard(model, feed_flows, feed_temperature, medium_temperature):
+    """Runaway guard max(T_feed, T_medium) + 3 dT_ad + 500 K of one feed, [K]
+
+    Our choice, above any hot spot the tube can reach: the gas can be heated up to the
+    medium's temperature (a furnace-heated coil) and heats itself by at most dT_ad.
+
+    Parameters
+    ----------
+    model : simulator.model.build.Model
+        Model of the case (thermo data and stoichiometry).
+    feed_flows : ndarray
+        Feed molar flows per tube, [mol/s]
+    feed_temperature : float
+        Feed temperature, [K]
+    medium_temperature : float
+        Medium temperature (where it enters; the feed temperature without a medium), [K]
+
+    Returns
+    -------
+    float
+        The guard; where the adiabatic rise is not finite, not positive or has no root,
+        the hotter of feed and medium + 500 K, [K]
+    """
+    from simulator.model import adiabatic
+
+    try:
+        rise = adiabatic.adiabatic_rise(feed_flows, feed_temperature, model.args[4], model.key_index,
+                                        model.args[2])[0]
+    except (ValueError, ArithmeticError):   # the root finder found no rise for this feed
+        rise = math.nan
+    hotter = max(feed_temperature, medium_temperature)
+    return hotter + 3.0 * (rise if math.isfinite(rise) and rise > 0 else 0.0) + 500.0

@@ -45,7 +45,8 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from simulator.errors import CaseError, SimulatorError
-from simulator.sweeps.paths import apply_values, check_vary, get_path, grid, parse_vary, VarySpec
+from simulator.sweeps.lock import folder_lock
+from simulator.sweeps.paths import apply_values, check_vary, grid, parse_vary, VarySpec
 from simulator.sweeps.progress import Progress
 from simulator.sweeps.store import RESULT_FIELDS, ResultsStore
 from simulator.units import parse_quantity
@@ -115,6 +116,8 @@ class RunSummary:
         Worker processes (local) or worker threads (Dask) available.
     elapsed : float
         Wall time of the call, [s]
+    invalid : int
+        Of ``computed``, cases stored with status "invalid" (the case refused the values).
     """
 
     total: int
@@ -125,6 +128,7 @@ class RunSummary:
     batch_size: int
     workers: int
     elapsed: float
+    invalid: int = 0
 
 
 def one_line_error(err):
@@ -166,11 +170,15 @@ def evaluate_case(evaluator, base_raw, case_dir, case_id, values):
     Returns
     -------
     dict
-        ``case_id``, the values and the result fields; ``status = "failed"`` with the
-        reason in ``error`` if anything raised.
+        ``case_id``, the values and the result fields; ``status = "invalid"`` with the
+        loader's reason if the case refuses the values (:class:`CaseError`),
+        ``status = "failed"`` with the reason in ``error`` if anything else raised.
     """
     try:
         row = _normalised(evaluator(apply_values(base_raw, values), case_dir))
+    except CaseError as err:  # the case refuses these values: an invalid sample, not a failed run
+        row = {name: None for name in RESULT_FIELDS}
+        row.update(status="invalid", error=one_line_error(err))
     except Exception as err:  # noqa: BLE001 - any failure of one case is recorded, not raised
         row = {name: None for name in RESULT_FIELDS}
         row.update(status="failed", error=one_line_error(err))
@@ -182,6 +190,13 @@ def evaluate_case(evaluator, base_raw, case_dir, case_id, values):
 def evaluate_batch(evaluator, base_raw, case_dir, batch):
     """Task body run in a worker: evaluate a list of ``(case_id, values)``; return the rows."""
     return [evaluate_case(evaluator, base_raw, case_dir, case_id, values) for case_id, values in batch]
+
+
+def check_batch_size(batch_size):
+    """Refuse a ``--batch-size`` below 1 (None: automatic) before anything is written."""
+    if batch_size is not None and (isinstance(batch_size, bool) or int(batch_size) != batch_size
+                                   or batch_size < 1):
+        raise CaseError(f"--batch-size {batch_size!r}: must be a whole number >= 1")
 
 
 def plan_batches(cases, batch_size=None, seconds_per_case=None, workers=1):
@@ -208,12 +223,11 @@ def plan_batches(cases, batch_size=None, seconds_per_case=None, workers=1):
         The batches, in case order.
     """
     n = len(cases)
+    check_batch_size(batch_size)
     if n == 0:
         return []
     if batch_size is not None:
         size = int(batch_size)
-        if size < 1:
-            raise ValueError(f"batch_size = {batch_size!r}: must be a whole number >= 1")
         return [cases[i:i + size] for i in range(0, n, size)]
     per_case = seconds_per_case or DEFAULT_SECONDS_PER_CASE
     target = min(max(math.ceil(TARGET_TASK_SECONDS / per_case), MIN_BATCH), 1000)
@@ -341,7 +355,7 @@ def run_cases(base_raw, case_dir, cases, evaluator, store, executor=None, schedu
     failed_before = _count_failed(store) if progress and skipped else 0
     if progress:
         progress.start(len(cases), skipped, failed_before)
-    computed = failed = submitted = 0
+    computed = failed = submitted = invalid = 0
     running = {}  # future -> (batch, deaths)
 
     def submit(batch, deaths):
@@ -355,11 +369,12 @@ def run_cases(base_raw, case_dir, cases, evaluator, store, executor=None, schedu
         submitted += 1
 
     def record(rows):
-        nonlocal computed, failed
+        nonlocal computed, failed, invalid
         store.write_rows(rows)
         n_failed = sum(row["status"] == "failed" for row in rows)
         computed += len(rows)
         failed += n_failed
+        invalid += sum(row["status"] == "invalid" for row in rows)
         if progress:
             progress.update(len(rows), n_failed)
 
@@ -425,7 +440,7 @@ def run_cases(base_raw, case_dir, cases, evaluator, store, executor=None, schedu
             progress.close()
     return RunSummary(total=len(cases), skipped=skipped, computed=computed, failed=failed,
                       batches=submitted, batch_size=planned_size, workers=workers,
-                      elapsed=time.perf_counter() - t0)
+                      elapsed=time.perf_counter() - t0, invalid=invalid)
 
 
 def _dies_alone(evaluator, base_raw, case_dir, batch):
@@ -491,7 +506,8 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
     """Full grid over one or more case parameters: ``tubesim sweep CASE --vary ... --out DIR``.
 
     Writes ``DIR/results.sqlite`` as cases finish and ``DIR/results.csv`` at the end.
-    Rerunning with the same ``out_dir`` and options resumes.
+    Rerunning with the same ``out_dir`` and options resumes. The folder is locked while
+    the run writes (:func:`~simulator.sweeps.lock.folder_lock`).
 
     Parameters
     ----------
@@ -518,10 +534,11 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
         raise CaseError('--vary: give at least one "PATH=START..STOP in N"')
     for spec in specs:
         check_vary(base_raw, spec)
+    check_batch_size(batch_size)
     cases = grid(specs)
     out_dir = Path(out_dir)
     meta = grid_meta(base_raw, specs, cases)
-    with ResultsStore(out_dir / "results.sqlite", [s.path for s in specs], meta) as store:
+    with folder_lock(out_dir, "sweep"), ResultsStore(out_dir / "results.sqlite", [s.path for s in specs], meta) as store:
         summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
                             scheduler=scheduler, batch_size=batch_size, progress=progress)
         store.export_csv(out_dir / "results.csv")
@@ -530,12 +547,17 @@ def run_grid_sweep(base_raw, case_dir, vary, evaluator, out_dir, *, executor=Non
 
 def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=None, method="lhs",
                     temperature_limit=None, confidence=0.95, interval="clopper-pearson",
-                    executor=None, scheduler=None, batch_size=None, progress=True):
+                    executor=None, scheduler=None, batch_size=None, progress=True,
+                    engine="pool", model=None, probe=None, source_path=""):
     """Monte Carlo over the case's ``[[uncertainty]]`` entries: ``tubesim uncertainty``.
 
+    Before any case runs, every distribution is checked against the values the case
+    accepts (:func:`simulator.sweeps.uncertain_ranges.checked_against_loader`): more
+    than 0.1 % of its mass outside is refused; truncated normals are cut to that range.
     Writes ``DIR/results.sqlite`` as cases finish, ``DIR/results.csv`` and
-    ``DIR/uncertainty.json`` at the end. Without ``seed``, a resumed run reuses the
-    stored seed and a new run draws one; the seed is recorded either way.
+    ``DIR/uncertainty.json`` at the end; the folder is locked meanwhile. Without
+    ``seed``, a resumed run reuses the stored seed and a new run draws one; the seed is
+    recorded either way.
 
     Parameters
     ----------
@@ -544,7 +566,7 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     case_dir : str or Path
         Folder of the case file.
     evaluator : callable
-        Picklable ``evaluator(raw_case, case_dir) -> dict``.
+        Picklable ``evaluator(raw_case, case_dir) -> dict`` (the pool engine).
     out_dir : str or Path
         Output folder.
     n_samples : int
@@ -560,47 +582,78 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     interval : {"clopper-pearson", "wilson"}
         Binomial confidence interval.
     executor, scheduler, batch_size, progress
-        As :func:`run_cases`.
+        As :func:`run_cases` (pool engine).
+    engine : {"pool", "compiled"}
+        ``"compiled"``: the samples run through the compiled batch integrator
+        (:func:`simulator.sweeps.compiled_sweep.run_compiled_cases`, the path of
+        ``tubesim sweep``); needs ``model``.
+    model : simulator.model.build.Model, optional
+        Base model, for the compiled engine.
+    probe : object, optional
+        ``refusal(path, value) -> None or reason``; default the case loader
+        (:class:`simulator.sweeps.validity.CaseProbe`).
+    source_path : str
+        Case file, for messages.
 
     Returns
     -------
     dict
-        The content written to ``uncertainty.json``.
+        The content written to ``uncertainty.json`` (with ``engine``).
     """
     from simulator.fileio import atomic_write_json
     from simulator.sweeps import sampling
+    from simulator.sweeps.uncertain_ranges import check_uncertainty_entries
 
-    specs = sampling.parse_uncertainty(base_raw.get("uncertainty"), base_raw)
+    if engine not in ("pool", "compiled"):
+        raise ValueError(f"engine = {engine!r}: choose pool or compiled")
+    if engine == "compiled" and model is None:
+        raise ValueError("engine = 'compiled' needs the base model")
+    check_batch_size(batch_size)
+    specs, base, ranges = check_uncertainty_entries(base_raw, case_dir, source_path, probe)
     if temperature_limit is None:
-        text = get_path(base_raw, "design.temperature_limit")
-        temperature_limit = parse_quantity(text, "temperature", "design.temperature_limit")
+        prefix = f"{source_path}: " if source_path else ""
+        text = base_raw.get("design", {}).get("temperature_limit") if isinstance(base_raw.get("design"), dict) \
+            else None
+        if text is None:
+            raise CaseError(f"{prefix}design.temperature_limit: missing; uncertainty estimates the probability "
+                            'that the hot spot exceeds it; give it, e.g. temperature_limit = "650 K"')
+        temperature_limit = parse_quantity(text, "temperature", f"{prefix}design.temperature_limit")
     out_dir = Path(out_dir)
     db = out_dir / "results.sqlite"
-    if seed is None:
-        seed = ResultsStore.read_meta(db).get("seed")
+    with folder_lock(out_dir, "uncertainty"):
         if seed is None:
-            seed = sampling.fresh_seed()
-    base = sampling.base_values(specs, base_raw)
-    samples = sampling.sample(specs, base, n_samples, seed, method=method)
-    paths = [s.parameter for s in specs]
-    cases = [(i, dict(zip(paths, (float(v) for v in samples[i])))) for i in range(samples.shape[0])]
-    meta = {
-        "command": "uncertainty",
-        "tubesim_version": _tool_version(),
-        "seed": int(seed),
-        "method": method,
-        "n_samples": int(n_samples),
-        "distributions": [s.describe() for s in specs],
-        "case_sha256": fingerprint(base_raw),
-        "plan_sha256": fingerprint(cases),
-    }
-    with ResultsStore(db, paths, meta) as store:
-        summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
-                            scheduler=scheduler, batch_size=batch_size, progress=progress)
-        store.export_csv(out_dir / "results.csv")
-        result = sampling.summarize(store.rows(), specs, temperature_limit, seed=int(seed), method=method,
-                                    confidence=confidence, interval=interval)
-    result["run"] = {"skipped": summary.skipped, "computed": summary.computed,
-                     "elapsed_s": round(summary.elapsed, 3)}
-    atomic_write_json(out_dir / "uncertainty.json", result)
+            seed = ResultsStore.read_meta(db).get("seed")
+            if seed is None:
+                seed = sampling.fresh_seed()
+        samples = sampling.sample(specs, base, n_samples, seed, method=method)
+        paths = [s.parameter for s in specs]
+        cases = [(i, dict(zip(paths, (float(v) for v in samples[i])))) for i in range(samples.shape[0])]
+        meta = {
+            "command": "uncertainty",
+            "tubesim_version": _tool_version(),
+            "seed": int(seed),
+            "method": method,
+            "n_samples": int(n_samples),
+            "distributions": [s.describe() for s in specs],
+            "case_sha256": fingerprint(base_raw),
+            "plan_sha256": fingerprint(cases),
+        }
+        with ResultsStore(db, paths, meta) as store:
+            if engine == "compiled":
+                from simulator.sweeps.compiled_sweep import run_compiled_cases
+
+                summary = run_compiled_cases(case_dir, cases, paths, model, store, progress=bool(progress),
+                                             label="samples", ranges=ranges)
+            else:
+                summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
+                                    scheduler=scheduler, batch_size=batch_size, progress=progress)
+            store.export_csv(out_dir / "results.csv")
+            result = sampling.summarize(store.rows(), specs, temperature_limit, seed=int(seed), method=method,
+                                        confidence=confidence, interval=interval, ranges=ranges)
+        result["engine"] = engine
+        result["run"] = {"skipped": summary.skipped, "computed": summary.computed,
+                         "elapsed_s": round(summary.elapsed, 3), "workers": summary.workers,
+                         "cases_per_second": round(summary.computed / summary.elapsed, 1)
+                         if summary.computed and summary.elapsed > 0 else None}
+        atomic_write_json(out_dir / "uncertainty.json", result)
     return result

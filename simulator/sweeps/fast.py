@@ -57,6 +57,8 @@ from simulator.sweeps.paths import get_path
 #: Status codes of :func:`batch_solve`, as the text ``simulate()`` uses.
 STATUS_NAMES = ("completed", "stopped", "failed")
 COMPLETED, STOPPED, FAILED = 0, 1, 2
+#: Why a compiled run stopped (``stop`` of :func:`batch_solve`; 0: it did not, or the normal path ran it).
+STOP_TEMPERATURE, STOP_PRESSURE = 1, 2
 #: Why a case went to the normal (LSODA) path; index into this tuple.
 FALLBACK_REASONS = ("none", "step budget exhausted", "step size collapsed", "non-finite state",
                     "stiffness detected", "parameters rejected by the fast map", "compiled loop raised")
@@ -736,6 +738,9 @@ def _solve_normally(model, paths, values, temperature_limit, case_dir):
         limit = math.nan if math.isinf(temperature_limit) else float(temperature_limit)
         new = dataclasses.replace(new, design=dataclasses.replace(new.design, temperature_limit=limit))
         result = simulate(new, model=built)
+    except CaseError as err:  # the loader refuses these values: an invalid case, not a numerical failure
+        text = "; ".join(" ".join(line.split()) for line in err.problems) or "(no message)"
+        return {"status": FAILED, "error": f"{type(err).__name__}: {text}", "invalid": True}
     except Exception as err:  # noqa: BLE001 - recorded per case, as the sweep engine does
         text = " ".join(str(err).split()) or "(no message)"
         return {"status": FAILED, "error": f"{type(err).__name__}: {text}"}
@@ -800,7 +805,9 @@ def batch_solve(model, params, paths, *, rtol=DEFAULT_RTOL, atol_scale=None, max
         ``outlet_pressure_Pa``, ``outlet_position_m`` (float arrays, SI; the outlet is
         the stop point of a stopped run), ``fallback`` (bool),
         ``fallback_reason`` (int8, index into :data:`FALLBACK_REASONS`), ``error``
-        (list, text for failed cases else None), ``steps``, ``rhs_evaluations`` (int
+        (list, text for failed cases else None), ``invalid`` (bool: the case loader
+        refused the values; status "failed"), ``stop`` (int: :data:`STOP_TEMPERATURE`,
+        :data:`STOP_PRESSURE` or 0), ``steps``, ``rhs_evaluations`` (int
         arrays), ``stiff`` (bool: the stiffness test fired, informational) and
         ``timing`` (dict of seconds: pack, compiled, fallback).
     """
@@ -866,6 +873,8 @@ def batch_solve(model, params, paths, *, rtol=DEFAULT_RTOL, atol_scale=None, max
         "steps": np.nan_to_num(res[:, _N_ACC], nan=0.0).astype(np.int64),
         "rhs_evaluations": np.nan_to_num(res[:, _N_FEV], nan=0.0).astype(np.int64),
         "stiff": res[:, _STIFF] == 1.0,
+        "invalid": np.zeros(N, dtype=bool),
+        "stop": np.where(code == _STOP_LIMIT, STOP_TEMPERATURE, np.where(code == _STOP_FLOOR, STOP_PRESSURE, 0)),
     }
     for name in _RESULT_NAMES:
         out[name][back] = np.nan
@@ -876,6 +885,8 @@ def batch_solve(model, params, paths, *, rtol=DEFAULT_RTOL, atol_scale=None, max
         one = _solve_normally(model, paths, params[i], T_lim[i], case_dir)
         out["status"][i] = one["status"]
         out["error"][i] = one["error"]
+        out["invalid"][i] = one.get("invalid", False)
+        out["stop"][i] = 0
         for name in _RESULT_NAMES + ("steps", "rhs_evaluations"):
             if name in one:
                 out[name][i] = one[name]

@@ -37,6 +37,8 @@ _NICE_SI_UNITS = (
     "mol/(kg*s)", "m^3/(mol*s)",
 )
 _INT_TEXT = re.compile(r"^\s*[-+]?\d+\s*$")
+#: Most cases one sweep or uncertainty run may plan (memory and time budget; common practice, no source).
+MAX_CASES = 10_000_000
 
 
 @dataclass(frozen=True)
@@ -252,6 +254,9 @@ def parse_vary(spec):
     if not _INT_TEXT.match(n_text) or int(n_text) < 1:
         raise CaseError(f"{where}: N = {n_text!r}: must be a whole number >= 1 (the number of values)")
     n = int(n_text)
+    if n > MAX_CASES:
+        raise CaseError(f"{where}: N = {n_text!r}: at most {MAX_CASES} values per sweep (a work budget); "
+                        "split the range into several sweeps")
     start, start_dim = _parse_end(start_text, where, "START")
     stop, stop_dim = _parse_end(stop_text, where, "STOP")
     if start_dim != stop_dim:
@@ -473,6 +478,10 @@ def grid(vary_specs):
     twice = sorted({p for p in paths if paths.count(p) > 1})
     if twice:
         raise CaseError(f"--vary: {', '.join(twice)} varied more than once; give each path once")
+    total = math.prod(len(spec.values_si) for spec in vary_specs)
+    if total > MAX_CASES:
+        raise CaseError(f"--vary: the grid has {total} cases; at most {MAX_CASES} per sweep (a work budget); "
+                        "use fewer values or several sweeps")
     columns = [
         [int(v) for v in spec.values_si] if spec.integer else [float(v) for v in spec.values_si]
         for spec in vary_specs

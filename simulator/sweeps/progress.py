@@ -76,8 +76,9 @@ class Progress:
         self._t0 = self.clock()
         self._last_draw = None
         self._last_decile = self._decile()
-        if not self.interactive and self.done:
-            self._write_line(f"{self.label}: resuming, {self.done}/{self.total} already stored")
+        if not self.interactive:         # a line at once, so a long run never starts silent
+            self._write_line(f"{self.label}: resuming, {self.done}/{self.total} already stored" if self.done
+                             else f"{self.label}: starting, {self.total} to run")
         self._maybe_draw(force=self.interactive)
 
     def update(self, n, failed=0):
