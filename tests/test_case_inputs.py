@@ -96,7 +96,7 @@ def test_a_really_different_order_is_still_refused(write_case):
     (DEMO.encode("utf-16"), "UTF-16"),
     (b"\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR", "not a text file"),
     (DEMO.encode("utf-8").replace(b"decomposition", b"d\xe9composition"), "not UTF-8"),
-])
+], ids=["utf-16", "binary", "latin-1"])
 def test_a_file_that_is_not_utf8_text_is_refused_in_one_line(tmp_path, data, says):
     path = tmp_path / "case.toml"
     path.write_bytes(data)
