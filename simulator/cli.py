@@ -265,13 +265,12 @@ def _command_line():
 
 
 def _raw_case(path):
-    import tomllib
     from pathlib import Path
 
     from simulator.case.load import load_case
 
-    load_case(path)                      # validate the base case first: every problem at once
-    return tomllib.loads(Path(path).read_text(encoding="utf-8")), str(Path(path).resolve().parent)
+    case = load_case(path)               # validate the base case first: every problem at once
+    return case.raw, str(Path(path).resolve().parent)
 
 
 def _sweep(args):

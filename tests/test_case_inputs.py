@@ -195,3 +195,9 @@ def test_load_case_stays_fast(write_case):
         load_case(path)
     assert (time.perf_counter() - start) / 5 < 0.1
     assert math.isfinite(load_case(path).feed.temperature)
+
+
+def test_a_utf8_file_with_a_byte_order_mark_loads(tmp_path):
+    path = tmp_path / "bom.toml"
+    path.write_bytes(b"\xef\xbb\xbf" + DEMO.encode("utf-8"))
+    assert load_case(path).raw["feed"]["pressure"] == "3 bar"
