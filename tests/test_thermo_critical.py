@@ -89,9 +89,8 @@ def test_an_ambiguous_isomer_is_refused_under_peng_robinson_naming_the_candidate
     assert np.isnan(crit).all() and sources == ("",)
 
 
-@pytest.mark.published("coolprop", "AbstractState('PR', 'Ethanol'), Z at 560 K and 40 bar")
-@pytest.mark.published("peng_robinson1976", "PR cubic for pure ethanol")
-def test_ethanol_gets_its_own_critical_constants_and_the_peng_robinson_z_of_coolprop(write_case):
+@pytest.mark.published("coolprop", "Peng-Robinson compressibility factor of pure ethanol at 560 K and 40 bar")
+def test_pure_ethanol_compressibility_at_560_K_and_40_bar_against_coolprop_peng_robinson(write_case):
     from CoolProp.CoolProp import PT_INPUTS, AbstractState
 
     from simulator.case.load import load_case
@@ -115,12 +114,13 @@ def test_ethanol_gets_its_own_critical_constants_and_the_peng_robinson_z_of_cool
 
 
 @pytest.mark.published("iapws95", "critical point of water, Tc = 647.096 K, pc = 22.064 MPa")
-@pytest.mark.published("coolprop", "PropsSI('Tcrit'/'pcrit'/'acentric', fluid) of the reference EOS")
+@pytest.mark.published("coolprop", "critical temperature, critical pressure and acentric factor of the "
+                                   "reference equations of state")
 @pytest.mark.parametrize("formula, fluid", [("H2O", "Water"), ("H3N", "Ammonia"), ("Ar", "Argon"),
                                             ("He", "Helium"), ("H2S", "HydrogenSulfide"),
                                             ("O2S", "SulfurDioxide"), ("HCl", "HydrogenChloride"),
                                             ("Ne", "Neon"), ("N2O", "NitrousOxide")])
-def test_supplement_table_agrees_with_the_reference_equations_of_state(formula, fluid):
+def test_critical_constants_of_water_ammonia_and_other_common_species_against_reference_equations_of_state(formula, fluid):
     import CoolProp.CoolProp as CP
 
     tc, pc, omega, _ = SUPPLEMENT[formula]
