@@ -42,23 +42,16 @@ SUPPLEMENT = {
 
 #: Common names and structural formulas -> the table's descriptive name (normalised, see _norm).
 ALIASES = {
-    "ethanol": "ethylalcohol", "c2h5oh": "ethylalcohol", "ch3ch2oh": "ethylalcohol",
-    "etoh": "ethylalcohol",
+    "ethanol": "ethylalcohol", "c2h5oh": "ethylalcohol", "ch3ch2oh": "ethylalcohol", "etoh": "ethylalcohol",
     "dimethylether": "methylether", "dme": "methylether", "ch3och3": "methylether",
-    "ch3cho": "acetaldehyde", "ethanal": "acetaldehyde",
-    "ethyleneoxide": "ethyleneoxide", "oxirane": "ethyleneoxide",
+    "ch3cho": "acetaldehyde", "ethanal": "acetaldehyde", "oxirane": "ethyleneoxide",
     "ch3cooh": "aceticacid", "hcooch3": "methylformate",
-    "propylene": "propene", "ch3chch2": "propene",
-    "isobutane": "isobutane", "nbutane": "butane", "isobutene": "2methylpropene",
-    "npentane": "pentane", "ipentane": "isopentane", "isopentane": "isopentane",
-    "nhexane": "hexane", "nheptane": "heptane", "noctane": "octane", "isooctane": "224trimethylpentane",
-    "acetone": "acetone", "ch3coch3": "acetone",
+    "propylene": "propene", "ch3chch2": "propene", "nbutane": "butane", "isobutene": "2methylpropene",
+    "npentane": "pentane", "ipentane": "isopentane", "nhexane": "hexane", "nheptane": "heptane",
+    "noctane": "octane", "isooctane": "224trimethylpentane", "ch3coch3": "acetone",
     "1propanol": "propylalcohol", "npropanol": "propylalcohol", "2propanol": "isopropylalcohol",
-    "isopropanol": "isopropylalcohol",
-    "oxylene": "oxylene", "mxylene": "mxylene", "pxylene": "pxylene",
-    "ethylbenzene": "ethylbenzene", "c6h5c2h5": "ethylbenzene",
-    "toluene": "toluene", "c6h5ch3": "toluene",
-    "styrene": "styrene", "c6h5chch2": "styrene",
+    "isopropanol": "isopropylalcohol", "c6h5c2h5": "ethylbenzene", "c6h5ch3": "toluene",
+    "c6h5chch2": "styrene",
 }
 
 
