@@ -69,6 +69,9 @@ def check_case(path):
     if case.design.target_conversion != case.design.target_conversion:    # NaN: not given
         notes.append("size needs design.target_conversion (not given); the other verbs report conversion "
                      "without a target.")
+    if not case.heat.exchange:
+        notes.append(f"screen: heat.mode = {case.heat.mode!r}; runaway screening is for a tube that exchanges heat "
+                     'through its wall (heat.mode = "exchange").')
     if entries is None:
         notes.append("uncertainty needs [[uncertainty]] entries (none given).")
     return Readiness(case=case, warnings=plausibility_warnings(case), notes=notes)

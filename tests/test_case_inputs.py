@@ -111,6 +111,23 @@ def test_deeply_nested_arrays_are_refused_not_a_recursion_error(write_case):
     assert "nested too deeply" in line
 
 
+@pytest.mark.parametrize("extra, says", [
+    ('\n[thermo.critical.N2]\ncritical_pressure = ' + "[" * 40 + '"3 MPa"' + "]" * 40 + "\n", "nested more than 16"),
+    ("\nnumbers = [" + ", ".join(["1"] * 5000) + "]\n", "an array of 5000 entries"),
+], ids=["deep", "long"])
+def test_a_case_of_absurd_shape_is_refused_in_one_line(write_case, extra, says):
+    (line,) = _problems(write_case, DEMO + extra)
+    assert says in line and len(line) < 300
+
+
+def test_a_hundred_thousand_unknown_species_are_refused_quickly(write_case):
+    fractions = ", ".join(f"S{i} = 1e-05" for i in range(100_000))
+    start = time.perf_counter()
+    (line,) = _problems(write_case, DEMO.replace("{ A = 0.7, N2 = 0.3 }", "{ " + fractions + " }"))
+    assert "feed.mole_fractions: a table of 100000 entries" in line
+    assert time.perf_counter() - start < 5.0
+
+
 def test_text_as_an_inhibition_exponent_is_refused(write_case):
     text = DEMO.replace('rate_basis = "reactor-volume"      # rate per unit reactor volume, or "catalyst-mass"',
                         'rate_basis = "reactor-volume"\nform = "hougen-watson"\n'

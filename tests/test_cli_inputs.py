@@ -63,6 +63,11 @@ def test_validate_says_one_tube_and_one_reaction(cases_dir, capsys):
     assert "note: size needs design.target_conversion" in out
 
 
+def test_validate_notes_that_screening_needs_a_wall_cooled_tube(cases_dir, capsys):
+    assert main(["validate", str(cases_dir / "decomposition_empty_tube.toml")]) == 0
+    assert "note: screen: heat.mode = 'isothermal'" in capsys.readouterr().out
+
+
 def test_debug_works_after_the_verb(write_case):
     path = write_case(DEMO.replace('length = "12 m"', "length = 12"))
     assert main(["validate", str(path)]) == 2

@@ -52,7 +52,41 @@ MIN_MOLE_FRACTION = 1.0e-20
 #: Most integration steps a tube may need at the given ``solver.max_step`` (length / max_step).
 MAX_STEPS_FOR_MAX_STEP = 100_000
 
-_UNITS = {"temperature": "K", "pressure": "Pa", "length": "m", "count": "", "density": "kg/m^3"}
+#: Shape of a case file: deepest nesting of tables/arrays, most entries in one table or array,
+#: longest text value. A case needs a nesting depth of about 6 and tens of entries.
+MAX_DEPTH, MAX_ENTRIES, MAX_TEXT = 16, 1000, 10_000
+
+
+def structure_problem(raw):
+    """Text of the first problem with the shape of a raw case (too deep, too long), else None.
+
+    Walks the dict without recursion, so a pathological file cannot exhaust the stack.
+
+    Examples
+    --------
+    >>> structure_problem({"feed": {"mole_fractions": {"A": 1.0}}}) is None
+    True
+    >>> deep = 1
+    >>> for _ in range(20):
+    ...     deep = [deep]
+    >>> structure_problem({"x": deep}).split(": ")[1]
+    'nested more than 16 levels deep; a case file needs only a few'
+    """
+    stack = [("", raw, 0)]
+    while stack:
+        path, node, depth = stack.pop()
+        if depth > MAX_DEPTH:
+            return f"{path}: nested more than {MAX_DEPTH} levels deep; a case file needs only a few"
+        if isinstance(node, str) and len(node) > MAX_TEXT:
+            return f"{path}: a text of {len(node)} characters; at most {MAX_TEXT} are accepted"
+        if isinstance(node, (dict, list)):
+            if len(node) > MAX_ENTRIES:
+                kind = "a table" if isinstance(node, dict) else "an array"
+                return f"{path or 'the case'}: {kind} of {len(node)} entries; at most {MAX_ENTRIES} are accepted"
+            items = node.items() if isinstance(node, dict) else enumerate(node)
+            for key, value in items:
+                stack.append((f"{path}.{key}" if path else str(key), value, depth + 1))
+    return None
 
 
 def _pattern_of(path):

@@ -11,7 +11,9 @@ import tomllib
 from pathlib import Path
 
 from simulator.case.equation import parse_equation
-from simulator.case.limits import MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, range_problem
+from simulator.case.limits import (
+    MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, range_problem, structure_problem,
+)
 from simulator.case.schema import (
     AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, InhibitionTerm, PressureDrop,
     Reaction, SolverOptions, Thermo, Tube,
@@ -69,6 +71,8 @@ RENAMED_VALUES = {
     ("reactions.*", "rate_basis", "volume"): 'rate_basis = "reactor-volume"',
 }
 PRESSURE_MODELS = ("none", "ergun", "pipe-friction")
+#: Unknown species that get did-you-mean hints; the rest are listed plainly.
+MAX_HINTS = 20
 FRICTION = ("churchill-1977", "colebrook-1939", "blasius-1913", "laminar")
 EOS = ("ideal-gas", "peng-robinson")
 
@@ -239,6 +243,9 @@ def load_case_dict(raw, source_path="", case_dir=None):
     Case
     """
     where = f"{source_path}: " if source_path else ""
+    shape = structure_problem(raw)
+    if shape is not None:
+        raise CaseError(f"{where}{shape}.")
     case_dir = case_dir or (str(Path(source_path).parent) if source_path else ".")
     ck = _Checker(where)
     ck.keys(raw, KEYS[""], "")
@@ -657,10 +664,13 @@ def _check_species(ck, species, thermo, reactions, feed, design):
     known = custom | set(in_file)
     where_from = f"'{thermo.species_file}' or [thermo.custom]" if thermo.species_file else "[thermo.custom]"
 
+    unknown = []
+
     def check(name, path):
         if name in known:
             return True
-        hint = near(name, known)
+        unknown.append(name)
+        hint = near(name, known) if len(unknown) <= MAX_HINTS else []     # difflib is slow on thousands
         extra = f"; did you mean {', '.join(repr(h) for h in hint)}?" if hint else ""
         if name[:1].isdigit():
             extra += " Put a space between a coefficient and its species (\"2 B\")."
