@@ -37,7 +37,8 @@ def _whole_number(lowest):
 def _execution_options(p):
     p.add_argument("--scheduler", default=None, metavar="ADDRESS",
                    help="Dask scheduler address, e.g. tcp://10.0.0.5:8786 (default: local process pool)")
-    p.add_argument("--batch-size", type=_whole_number(1), default=None, help="cases per task (default: automatic, >= 25)")
+    p.add_argument("--batch-size", type=_whole_number(1), default=None,
+                   help="cases per task (default: automatic, >= 25)")
     p.add_argument("--engine", choices=("auto", "compiled", "pool"), default="auto",
                    help="auto: the compiled batch integrator when every varied path is an operating number it "
                         "supports and no --scheduler is given, else the process pool / Dask (default auto)")
@@ -56,19 +57,21 @@ def build_parser():
                         help="show tracebacks on errors")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
 
-    p = sub.add_parser("validate", parents=[common], help="load and check a case file only")
+    p = sub.add_parser("validate", parents=[common], help="check a case file for every verb, without running the tube")
     p.add_argument("case", help="case file (TOML)")
 
     p = sub.add_parser("run", parents=[common], help="solve the tube balances; write summary.json and profile.csv")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
 
-    p = sub.add_parser("assumptions", parents=[common], help="ideal design (isothermal, isobaric, ideal gas) vs full model; "
+    p = sub.add_parser("assumptions", parents=[common],
+                       help="ideal design (isothermal, isobaric, ideal gas) vs full model; "
                        "write assumptions.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
 
-    p = sub.add_parser("size", parents=[common], help="length for the given tube count and tube count for the given length; "
+    p = sub.add_parser("size", parents=[common],
+                       help="length for the given tube count and tube count for the given length; "
                        "write sizing.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")

@@ -293,9 +293,9 @@ def _check_sizes(ck, raw, feed, tube, bed, solver):
     if per_tube < lowest:
         unit = {"molar_flow": "mol/s", "mass_flow": "kg/s", "volumetric_flow": "m^3/s"}[feed.flow_kind]
         key = next(k for k in ("molar_flow", "mass_flow", "volumetric_flow") if k in raw["feed"])
-        ck.fail(f"feed.{key}", f" = {raw['feed'][key]!r}: {per_tube:.3g} {unit} per tube "
-                f"over {tube.count} tube{'' if tube.count == 1 else 's'}, below the plausible {lowest:g} {unit} per tube of this model; "
-                "check the number, its unit and tube.count.")
+        tubes = f"{tube.count} tube{'' if tube.count == 1 else 's'}"
+        ck.fail(f"feed.{key}", f" = {raw['feed'][key]!r}: {per_tube:.3g} {unit} per tube over {tubes}, below the "
+                f"plausible {lowest:g} {unit} per tube of this model; check the number, its unit and tube.count.")
     if bed is not None and bed.particle_diameter >= tube.inner_diameter:
         ck.fail("bed.particle_diameter", f" = {raw['bed']['particle_diameter']!r}: not smaller than "
                 f"tube.inner_diameter ({raw['tube']['inner_diameter']!r}); the particles cannot fit in the tube.")
