@@ -203,6 +203,18 @@ def parse_quantity(value, dimension, where, si_unit=None):
         raise UnitError(
             f"{where} = {value!r}: needs a unit; write it as text with its unit, e.g. {example}."
         )
+    try:
+        result = _to_si(value, dimension, where, si_unit)
+    except (OverflowError, ZeroDivisionError, ArithmeticError) as err:
+        raise UnitError(f"{where} = {value!r}: cannot be converted to SI units ({err.__class__.__name__}); "
+                        "check the exponents.") from err
+    if not math.isfinite(result):
+        raise UnitError(f"{where} = {value!r}: not a finite number")
+    return result
+
+
+def _to_si(value, dimension, where, si_unit):
+    """Body of :func:`parse_quantity`: parse, check the dimension, convert (may overflow)."""
     ureg = registry()
     quantity = _quantity(value, where)
     expected = DIMENSIONS.get(dimension, dimension)
@@ -215,7 +227,7 @@ def parse_quantity(value, dimension, where, si_unit=None):
             else ureg.get_dimensionality(expected)
     except Exception:  # composite given as a unit string
         target_dim = ureg.Quantity(1, expected).dimensionality
-    if quantity.dimensionality != target_dim:
+    if not same_dimension(quantity.dimensionality, target_dim):
         example = _EXAMPLES.get(dimension)
         hint = f"e.g. {example}" if example else f"units of {expected}"
         raise UnitError(
@@ -223,10 +235,24 @@ def parse_quantity(value, dimension, where, si_unit=None):
             f"expected {dimension if example else 'dimension ' + str(target_dim)}, {hint}."
         )
     si = quantity.to(si_unit) if si_unit else quantity.to_base_units()
-    result = float(si.magnitude)
-    if not math.isfinite(result):
-        raise UnitError(f"{where} = {value!r}: not a finite number")
-    return result
+    return float(si.magnitude)
+
+
+def same_dimension(first, second, tolerance=1e-9):
+    """True when two pint dimensionalities have the same exponents within ``tolerance``.
+
+    Exponents built from decimal reaction orders carry rounding errors (3 * 1.8 - 3 =
+    2.4000000000000004), so an exact comparison would refuse a unit written as m^2.4.
+
+    Examples
+    --------
+    >>> ureg = registry()
+    >>> same_dimension(ureg.Quantity(1, "m**2.4").dimensionality,
+    ...                ureg.Quantity(1, "m**(3 * 1.8 - 3)").dimensionality)
+    True
+    """
+    keys = set(first) | set(second)
+    return all(abs(first.get(k, 0.0) - second.get(k, 0.0)) <= tolerance for k in keys)
 
 
 def si_unit_text(dimensionality_text):

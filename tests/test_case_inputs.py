@@ -218,3 +218,22 @@ def test_a_utf8_file_with_a_byte_order_mark_loads(tmp_path):
     path = tmp_path / "bom.toml"
     path.write_bytes(b"\xef\xbb\xbf" + DEMO.encode("utf-8"))
     assert load_case(path).raw["feed"]["pressure"] == "3 bar"
+
+
+def test_rate_constant_in_base_units_of_a_decimal_order_sum_is_accepted(write_case):
+    # 1/s * (m^3/mol)^0.8 written out: m^2.4 / (mol^0.8 * s); expected exponent 3 * 1.8 - 3 = 2.4000000000000004
+    text = DEMO.replace("orders = { A = 1 }", "orders = { A = 1.4, N2 = 0.4 }").replace(
+        'pre_exponential = "4.0e12 1/s"', 'pre_exponential = "4.0e12 m^2.4/(mol^0.8*s)"')
+    assert load_case(write_case(text)).reactions[0].pre_exponential == pytest.approx(4.0e12)
+
+
+def test_an_absurd_reaction_order_is_refused_without_overflow(write_case):
+    text = DEMO.replace("orders = { A = 1 }", "orders = { A = 1000000.0 }").replace(
+        'pre_exponential = "4.0e12 1/s"', 'pre_exponential = "4.0e12 mol/(m^3*s)/(mol/m^3)^1000000.0"')
+    problems = _problems(write_case, text)
+    assert any("reactions.0.orders.A = 1000000.0: outside the plausible range" in p for p in problems)
+
+
+def test_a_unit_that_overflows_in_conversion_is_a_unit_error():
+    with pytest.raises(UnitError, match="cannot be converted to SI units"):
+        parse_quantity("1 kmol^200", "[substance] ** 200", "x")

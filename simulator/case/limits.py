@@ -43,6 +43,9 @@ RANGES = {
     "assumptions.isothermal": (0.0, 1000.0),                # [K] temperature difference
 }
 
+#: Reaction orders and inhibition exponents accepted, [-] (negative orders: inhibition by a feed species).
+ORDER_RANGE = (-5.0, 10.0)
+
 #: Lowest flow per tube, by flow kind, in SI: [mol/s], [kg/s], [m^3/s] (at feed T and P).
 MIN_FLOW_PER_TUBE = {"molar_flow": 1.0e-9, "mass_flow": 1.0e-11, "volumetric_flow": 1.0e-11}
 

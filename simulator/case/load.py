@@ -12,7 +12,7 @@ from pathlib import Path
 
 from simulator.case.equation import parse_equation
 from simulator.case.limits import (
-    MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, range_problem, structure_problem,
+    MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, ORDER_RANGE, range_problem, structure_problem,
 )
 from simulator.case.schema import (
     AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, InhibitionTerm, PressureDrop,
@@ -392,6 +392,9 @@ def _reactions(ck, raw):
             for s, o in orders_raw.items():
                 if isinstance(o, bool) or not isinstance(o, (int, float)) or not math.isfinite(o):
                     ck.fail(f"{path}.orders.{s}", f" = {o!r}: must be a plain number.")
+                elif not ORDER_RANGE[0] <= o <= ORDER_RANGE[1]:
+                    ck.fail(f"{path}.orders.{s}", f" = {o!r}: outside the plausible range {ORDER_RANGE[0]:g} to "
+                            f"{ORDER_RANGE[1]:g} of a reaction order.")
                 else:
                     orders[s] = float(o)
         n = _round_order(sum(orders.values()))
