@@ -44,15 +44,22 @@ def _execution_options(p):
                         "supports and no --scheduler is given, else the process pool / Dask (default auto)")
 
 
+class _Parser(argparse.ArgumentParser):
+    """argparse with usage errors as one line in the house style (``error: ...``), exit 2."""
+
+    def error(self, message):
+        self.exit(2, f"error: {self.prog}: {message} (see {self.prog} --help)\n")
+
+
 def build_parser():
     """The argparse parser of the ``tubesim`` command."""
-    parser = argparse.ArgumentParser(
+    parser = _Parser(
         prog="tubesim", description="Tubular and packed-bed reactor design and review.",
         epilog=EPILOG, formatter_class=argparse.RawDescriptionHelpFormatter)
     parser.add_argument("--debug", action="store_true", help="show tracebacks on errors")
     parser.add_argument("--version", action="store_true", help="print the version and exit")
     # --debug also after the verb; SUPPRESS keeps a sub-parser from resetting a --debug given before it
-    common = argparse.ArgumentParser(add_help=False)
+    common = _Parser(add_help=False)
     common.add_argument("--debug", action="store_true", default=argparse.SUPPRESS,
                         help="show tracebacks on errors")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")

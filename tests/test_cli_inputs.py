@@ -84,7 +84,8 @@ def test_negative_seed_and_zero_samples_are_usage_errors(cases_dir, tmp_path, ca
     base = ["uncertainty", str(cases_dir / "decomposition_empty_tube.toml"), "--out", str(tmp_path / "o")]
     extra = ["--samples", "3"] if "--samples" not in argv else []
     assert main(base + extra + argv) == 2
-    assert says in capsys.readouterr().err
+    err = capsys.readouterr().err
+    assert says in err and err.startswith("error: tubesim uncertainty: ") and len(err.strip().splitlines()) == 1
     assert not (tmp_path / "o").exists()
 
 
