@@ -58,6 +58,8 @@ MAX_STEPS_FOR_MAX_STEP = 100_000
 #: Shape of a case file: deepest nesting of tables/arrays, most entries in one table or array,
 #: longest text value. A case needs a nesting depth of about 6 and tens of entries.
 MAX_DEPTH, MAX_ENTRIES, MAX_TEXT = 16, 1000, 10_000
+#: Largest case file read, [bytes]; a case is a few kilobytes (parsing 1.5 MB of TOML takes over a second).
+MAX_FILE_BYTES = 1_000_000
 
 
 def structure_problem(raw):

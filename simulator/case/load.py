@@ -12,7 +12,7 @@ from pathlib import Path
 
 from simulator.case.equation import parse_equation
 from simulator.case.limits import (
-    MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, ORDER_RANGE, range_problem, structure_problem,
+    MAX_FILE_BYTES, MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, ORDER_RANGE, range_problem, structure_problem,
 )
 from simulator.case.schema import (
     AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, InhibitionTerm, PressureDrop,
@@ -202,6 +202,9 @@ def load_case(path):
         data = path.read_bytes()
     except OSError as err:
         raise CaseError(f"{path}: cannot read the case file ({err.strerror or err})") from err
+    if len(data) > MAX_FILE_BYTES:
+        raise CaseError(f"{path}: a case file of {len(data)} bytes; at most {MAX_FILE_BYTES} are read (a case is a "
+                        "few kilobytes).")
     text = _decode(path, data)
     try:
         raw = tomllib.loads(text)
