@@ -252,3 +252,9 @@ def test_an_absurd_reaction_order_is_refused_without_overflow(write_case):
 def test_a_unit_that_overflows_in_conversion_is_a_unit_error():
     with pytest.raises(UnitError, match="cannot be converted to SI units"):
         parse_quantity("1 kmol^200", "[substance] ** 200", "x")
+
+
+def test_a_denormal_reaction_order_is_refused(write_case):
+    text = DEMO.replace("orders = { A = 1 }", "orders = { A = 1e-300 }").replace(
+        'pre_exponential = "4.0e12 1/s"', 'pre_exponential = "4.0e12 mol/(m^3*s)"')
+    assert any("reactions.0.orders.A = 1e-300" in p and "write 0" in p for p in _problems(write_case, text))

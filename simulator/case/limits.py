@@ -45,6 +45,8 @@ RANGES = {
 
 #: Reaction orders and inhibition exponents accepted, [-] (negative orders: inhibition by a feed species).
 ORDER_RANGE = (-5.0, 10.0)
+#: Smallest reaction order that is not zero, [-]; below it an order is a slip or a denormal number.
+MIN_ORDER = 1.0e-6
 
 #: Lowest flow per tube, by flow kind, in SI: [mol/s], [kg/s], [m^3/s] (at feed T and P).
 MIN_FLOW_PER_TUBE = {"molar_flow": 1.0e-9, "mass_flow": 1.0e-11, "volumetric_flow": 1.0e-11}

@@ -12,7 +12,8 @@ from pathlib import Path
 
 from simulator.case.equation import parse_equation
 from simulator.case.limits import (
-    MAX_FILE_BYTES, MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, ORDER_RANGE, range_problem, structure_problem,
+    MAX_FILE_BYTES, MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, MIN_ORDER, ORDER_RANGE,
+    range_problem, structure_problem,
 )
 from simulator.case.schema import (
     AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, InhibitionTerm, PressureDrop,
@@ -395,6 +396,9 @@ def _reactions(ck, raw):
             for s, o in orders_raw.items():
                 if isinstance(o, bool) or not isinstance(o, (int, float)) or not math.isfinite(o):
                     ck.fail(f"{path}.orders.{s}", f" = {o!r}: must be a plain number.")
+                elif 0.0 < abs(o) < MIN_ORDER:
+                    ck.fail(f"{path}.orders.{s}", f" = {o!r}: below {MIN_ORDER:g} in size, too small to mean anything; "
+                            "write 0 for a zero order.")
                 elif not ORDER_RANGE[0] <= o <= ORDER_RANGE[1]:
                     ck.fail(f"{path}.orders.{s}", f" = {o!r}: outside the plausible range {ORDER_RANGE[0]:g} to "
                             f"{ORDER_RANGE[1]:g} of a reaction order.")
