@@ -1,5 +1,13 @@
-"""Critical constants: the fast line scan of Cantera's critical-properties.yaml equals a full YAML parse."""
-from simulator.thermo.critical import _critical_table, _critical_table_yaml, _formula_key
+"""Critical constants: the fast line scan of Cantera's table, isomers matched by name, the built-in table."""
+import types
+
+import numpy as np
+import pytest
+
+from simulator.errors import CaseError
+from simulator.thermo.critical import (
+    SUPPLEMENT, _critical_table, _critical_table_yaml, _formula_key, critical_constants, lookup,
+)
 
 
 def test_line_scan_equals_yaml_parse():
@@ -16,13 +24,6 @@ def test_formula_keys_follow_the_table_convention():
 
 
 # --- isomers: critical constants matched by species name, never the first entry of a formula ---
-import types  # noqa: E402
-
-import numpy as np  # noqa: E402
-import pytest  # noqa: E402
-
-from simulator.errors import CaseError  # noqa: E402
-from simulator.thermo.critical import SUPPLEMENT, critical_constants, lookup  # noqa: E402
 
 ETHANOL_CASE = '''title = "Pure ethanol at 560 K and 40 bar, no reaction"
 [thermo]
