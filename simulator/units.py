@@ -7,7 +7,7 @@ numbers, wrong dimensions and gauge pressures.
 
 Units added to pint's defaults (the one place they are defined):
 
-- ``psia``: pound-force per square inch, absolute (= ``psi``).
+- ``psia``, ``bara``: pound-force per square inch and bar, absolute (= ``psi``, ``bar``).
 - ``lbmol`` (``lb_mol``, ``pound_mole``): 453.59237 mol.
 - ``Nm^3`` / ``Nm3`` (normal cubic metre): the amount of ideal gas that fills 1 m^3 at
   the normal reference state :data:`T_NORMAL` = 273.15 K and :data:`P_NORMAL` =
@@ -102,6 +102,7 @@ def registry():
     except OSError:  # no writable cache folder: build it in memory
         ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
     ureg.define("psia = psi")
+    ureg.define("bara = bar")
     ureg.define("pound_mole = 453.59237 * mole = lbmol = lb_mol")
     ureg.define(f"normal_cubic_meter = {NORMAL_CUBIC_METRE!r} * mole = normal_cubic_metre")
     return ureg

@@ -51,6 +51,7 @@ def test_the_suggested_absolute_pressure_is_accepted_and_means_gauge_plus_one_at
 
 def test_psia_lbmol_and_normal_cubic_metres_are_read_as_written():
     assert parse_quantity("14.6959 psia", "pressure", "p") == pytest.approx(101325.0, rel=1e-5)
+    assert parse_quantity("25 bara", "pressure", "p") == 25e5
     assert parse_quantity("1 lbmol/h", "molar_flow", "f") == pytest.approx(453.59237 / 3600.0)
     # a normal cubic metre: ideal gas at 273.15 K and 101.325 kPa, n = P V / (R T) = 44.615 mol
     assert NORMAL_CUBIC_METRE == pytest.approx(101325.0 / (R * 273.15))
