@@ -6,6 +6,7 @@ Peng-Robinson, viscosity from transport data), parses the ``[[uncertainty]]``
 entries with the sampler's own validator and collects the plausibility
 warnings. A problem that only some verbs meet names those verbs.
 """
+import math
 from dataclasses import dataclass, field
 
 from simulator.case.load import load_case
@@ -48,8 +49,9 @@ def check_case(path):
     case = load_case(path)
     where = f"{case.source_path}: " if case.source_path else ""
     problems = []
+    model = None
     try:
-        build_model(case)
+        model = build_model(case)
     except SimulatorError as err:
         lines = err.problems if isinstance(err, CaseError) else [str(err)]
         problems += [f"{line.rstrip('.')} (needed by {TUBE_VERBS[0]} and every verb that runs the tube: "
@@ -72,6 +74,11 @@ def check_case(path):
     if not case.heat.exchange:
         notes.append(f"screen: heat.mode = {case.heat.mode!r}; runaway screening is for a tube that exchanges heat "
                      'through its wall (heat.mode = "exchange").')
+    rise = model.adiabatic[0]
+    if not (math.isfinite(rise) and rise > 0):
+        what = f"adiabatic rise {rise:+.4g} K" if math.isfinite(rise) else "no adiabatic path to complete conversion"
+        notes.append(f"screen: no exothermic path for the key species {case.design.key_species} ({what}); runaway "
+                     "screening does not apply.")
     if entries is None:
         notes.append("uncertainty needs [[uncertainty]] entries (none given).")
     return Readiness(case=case, warnings=plausibility_warnings(case), notes=notes)

@@ -68,6 +68,12 @@ def test_validate_notes_that_screening_needs_a_wall_cooled_tube(cases_dir, capsy
     assert "note: screen: heat.mode = 'isothermal'" in capsys.readouterr().out
 
 
+def test_validate_notes_that_screening_does_not_apply_without_an_exothermic_path(cases_dir, capsys):
+    # the endothermic dehydrogenation demo: screen refuses it; validate must say so in advance
+    assert main(["validate", str(cases_dir / "dehydrogenation_heated_tube.toml")]) == 0
+    assert "note: screen: no exothermic path for the key species C2H6" in capsys.readouterr().out
+
+
 def test_debug_works_after_the_verb(write_case):
     path = write_case(DEMO.replace('length = "12 m"', "length = 12"))
     assert main(["validate", str(path)]) == 2
