@@ -21,62 +21,90 @@ Results are screening-level engineering estimates; see the report's cautions.
 """
 
 
+def _whole_number(lowest):
+    """argparse type: a whole number >= ``lowest`` (a usage error otherwise, exit 2)."""
+    def parse(text):
+        try:
+            value = int(text)
+        except ValueError:
+            raise argparse.ArgumentTypeError(f"{text!r}: must be a whole number >= {lowest}") from None
+        if value < lowest:
+            raise argparse.ArgumentTypeError(f"{text!r}: must be a whole number >= {lowest}")
+        return value
+    return parse
+
+
 def _execution_options(p):
     p.add_argument("--scheduler", default=None, metavar="ADDRESS",
                    help="Dask scheduler address, e.g. tcp://10.0.0.5:8786 (default: local process pool)")
-    p.add_argument("--batch-size", type=int, default=None, help="cases per task (default: automatic, >= 25)")
+    p.add_argument("--batch-size", type=_whole_number(1), default=None,
+                   help="cases per task (default: automatic, >= 25)")
     p.add_argument("--engine", choices=("auto", "compiled", "pool"), default="auto",
                    help="auto: the compiled batch integrator when every varied (sweep) or sampled (uncertainty) "
                         "path is an operating number it supports and no --scheduler is given, else the process "
                         "pool / Dask (default auto); the engine that ran is printed")
 
 
+class _Parser(argparse.ArgumentParser):
+    """argparse with usage errors as one line in the house style (``error: ...``), exit 2."""
+
+    def error(self, message):
+        self.exit(2, f"error: {self.prog}: {message} (see {self.prog} --help)\n")
+
+
 def build_parser():
     """The argparse parser of the ``tubesim`` command."""
-    parser = argparse.ArgumentParser(
+    parser = _Parser(
         prog="tubesim", description="Tubular and packed-bed reactor design and review.",
         epilog=EPILOG, formatter_class=argparse.RawDescriptionHelpFormatter)
     parser.add_argument("--debug", action="store_true", help="show tracebacks on errors")
     parser.add_argument("--version", action="store_true", help="print the version and exit")
+    # --debug also after the verb; SUPPRESS keeps a sub-parser from resetting a --debug given before it
+    common = _Parser(add_help=False)
+    common.add_argument("--debug", action="store_true", default=argparse.SUPPRESS,
+                        help="show tracebacks on errors")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
 
-    p = sub.add_parser("validate", help="load and check a case file only")
+    p = sub.add_parser("validate", parents=[common], help="check a case file for every verb, without running the tube")
     p.add_argument("case", help="case file (TOML)")
 
-    p = sub.add_parser("run", help="solve the tube balances; write summary.json and profile.csv")
+    p = sub.add_parser("run", parents=[common], help="solve the tube balances; write summary.json and profile.csv")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
 
-    p = sub.add_parser("assumptions", help="ideal design (isothermal, isobaric, ideal gas) vs full model; "
+    p = sub.add_parser("assumptions", parents=[common],
+                       help="ideal design (isothermal, isobaric, ideal gas) vs full model; "
                        "write assumptions.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
 
-    p = sub.add_parser("size", help="length for the given tube count and tube count for the given length; "
+    p = sub.add_parser("size", parents=[common],
+                       help="length for the given tube count and tube count for the given length; "
                        "write sizing.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
 
-    p = sub.add_parser("screen", help="runaway screening: hot spot, criteria, critical values; "
+    p = sub.add_parser("screen", parents=[common], help="runaway screening: hot spot, criteria, critical values; "
                        "write screening.json and sensitivity.csv")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
-    p = sub.add_parser("report", help="design-basis report: report.html and report.pdf")
+    p = sub.add_parser("report", parents=[common], help="design-basis report: report.html and report.pdf")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
     p.add_argument("--no-pdf", action="store_true", help="write the HTML report only")
 
-    p = sub.add_parser("sweep", help="full grid over case parameters; results.sqlite/.csv and plots")
+    p = sub.add_parser("sweep", parents=[common], help="full grid over case parameters; results.sqlite/.csv and plots")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--vary", action="append", required=True, metavar='"PATH=START..STOP in N"',
                    help='e.g. "heat.medium.temperature=600 K..660 K in 31" (repeat for a grid)')
     p.add_argument("--out", required=True, help="output folder (a rerun with the same folder resumes)")
     _execution_options(p)
 
-    p = sub.add_parser("uncertainty", help="Monte Carlo over the case's [[uncertainty]] entries")
+    p = sub.add_parser("uncertainty", parents=[common], help="Monte Carlo over the case's [[uncertainty]] entries")
     p.add_argument("case", help="case file (TOML)")
-    p.add_argument("--samples", type=int, required=True, help="number of samples")
-    p.add_argument("--seed", type=int, default=None, help="sampler seed (recorded; drawn if not given)")
+    p.add_argument("--samples", type=_whole_number(1), required=True, help="number of samples")
+    p.add_argument("--seed", type=_whole_number(0), default=None,
+                   help="sampler seed, a whole number >= 0 (recorded; drawn if not given)")
     p.add_argument("--method", choices=("lhs", "sobol"), default="lhs", help="sampling design (default lhs)")
     p.add_argument("--out", required=True, help="output folder (a rerun with the same folder resumes)")
     _execution_options(p)
@@ -132,14 +160,36 @@ def main(argv=None):
     except KeyboardInterrupt:
         print("interrupted", file=sys.stderr)
         return 130
+    except Exception as err:  # last resort: never a traceback without --debug
+        if args.debug:
+            raise
+        print(f"error: {args.command}: internal failure ({_first_line(err)}); this is a defect of tubesim, "
+              "not of the case; rerun with --debug for the traceback and report it.", file=sys.stderr)
+        return 1
+
+
+def _first_line(err):
+    """``Type: first line of the message`` of an exception, for one-line errors."""
+    lines = str(err).strip().splitlines()
+    return f"{type(err).__name__}: {lines[0]}" if lines else type(err).__name__
+
+
+def _plural(n, word):
+    """``1 tube``, ``40 tubes``."""
+    return f"{n} {word}" if n == 1 else f"{n} {word}s"
 
 
 def _validate(args):
-    from simulator.case.load import load_case
+    from simulator.readiness import check_case
 
-    case = load_case(args.case)
-    print(f"{args.case}: valid ({len(case.species)} species, {len(case.reactions)} reactions, "
-          f"{case.tube.count} tubes, heat mode {case.heat.mode}, pressure drop {case.pressure_drop.model})")
+    ready = check_case(args.case)
+    case = ready.case
+    print(f"{args.case}: valid ({len(case.species)} species, {_plural(len(case.reactions), 'reaction')}, "
+          f"{_plural(case.tube.count, 'tube')}, heat mode {case.heat.mode}, pressure drop {case.pressure_drop.model})")
+    for line in ready.notes:
+        print(f"note: {line}")
+    for line in ready.warnings:
+        print(f"warning: {line}", file=sys.stderr)
     return 0
 
 
@@ -226,13 +276,12 @@ def _command_line():
 
 
 def _raw_case(path):
-    import tomllib
     from pathlib import Path
 
     from simulator.case.load import load_case
 
-    load_case(path)                      # validate the base case first: every problem at once
-    return tomllib.loads(Path(path).read_text(encoding="utf-8")), str(Path(path).resolve().parent)
+    case = load_case(path)               # validate the base case first: every problem at once
+    return case.raw, str(Path(path).resolve().parent)
 
 
 #: Cases from which sweep and uncertainty say at once what they are doing (start-up takes seconds).

@@ -2,8 +2,17 @@
 
 Everything inside tubesim is a plain SI float (m, s, kg, mol, K, Pa absolute, J, W).
 Case files give every dimensional value as text with its unit (``"5 bar"``,
-``"250 degC"``); :func:`to_si` turns that into the SI number and refuses bare
+``"250 degC"``); :func:`parse_quantity` turns that into the SI number and refuses bare
 numbers, wrong dimensions and gauge pressures.
+
+Units added to pint's defaults (the one place they are defined):
+
+- ``psia``, ``bara``: pound-force per square inch and bar, absolute (= ``psi``, ``bar``).
+- ``lbmol`` (``lb_mol``, ``pound_mole``): 453.59237 mol.
+- ``Nm^3`` / ``Nm3`` (normal cubic metre): the amount of ideal gas that fills 1 m^3 at
+  the normal reference state :data:`T_NORMAL` = 273.15 K and :data:`P_NORMAL` =
+  101.325 kPa, i.e. P V / (R T) = 44.615 mol. A normal volumetric flow such as
+  ``"1200 Nm^3/h"`` is therefore a molar flow.
 """
 import functools
 import math
@@ -19,9 +28,22 @@ g = 9.80665
 T_REF = 298.15
 #: Standard-state pressure used by Cantera's NASA data (1 atm), [Pa].
 P_STANDARD = 101325.0
+#: Atmospheric pressure assumed when a gauge pressure is turned into an absolute one in a hint, [Pa].
+P_ATMOSPHERE = 101325.0
+#: Normal reference state of ``Nm^3``: temperature [K] and pressure [Pa].
+T_NORMAL, P_NORMAL = 273.15, 101325.0
+#: Amount of ideal gas in one normal cubic metre, [mol] (P_NORMAL * 1 m^3 / (R * T_NORMAL)).
+NORMAL_CUBIC_METRE = P_NORMAL / (R * T_NORMAL)
 
 _NUMBER = re.compile(r"^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$")
-_GAUGE = re.compile(r"^(barg|psig|kpag|mpag|pag|bar_g|bar\(g\)|atmg)$", re.IGNORECASE)
+#: A gauge pressure unit: bar, psi, kPa, MPa, Pa or atm followed by g, _g, (g), "gauge" or " g".
+_GAUGE = re.compile(r"^(bar|psi|kpa|mpa|pa|atm)[ _]?(g|\(g\)|gauge)$", re.IGNORECASE)
+#: Proper spelling of each gauge base unit, its absolute counterpart in a hint, and the decimals
+#: that print 1 atm in it exactly (or to 0.1 Pa for psi).
+_GAUGE_BASE = {"bar": ("bar", "bar", 5), "psi": ("psi", "psia", 4), "kpa": ("kPa", "kPa", 3),
+               "mpa": ("MPa", "MPa", 6), "pa": ("Pa", "Pa", 0), "atm": ("atm", "atm", 0)}
+#: A normal cubic metre written as Nm^3, Nm**3, Nm3, Nm³ or "N m^3" (not a newton-metre cubed).
+_NORMAL_VOLUME = re.compile(r"(?<![A-Za-z_])N\s?m(?:\^3|\*\*3|3|³)(?![0-9A-Za-z_])")
 
 #: Named dimensions a case field may ask for, as pint dimensionality strings.
 DIMENSIONS = {
@@ -40,6 +62,15 @@ DIMENSIONS = {
     "viscosity": "[mass] / [length] / [time]",
     "heat_transfer_coefficient": "[mass] / [time] ** 3 / [temperature]",
     "temperature_difference": "[temperature]",
+}
+
+#: SI unit text of each named dimension (for messages).
+SI_UNITS = {
+    "length": "m", "temperature": "K", "pressure": "Pa", "molar_flow": "mol/s", "mass_flow": "kg/s",
+    "volumetric_flow": "m^3/s", "molar_mass": "kg/mol", "molar_heat_capacity": "J/(mol*K)",
+    "specific_heat_capacity": "J/(kg*K)", "molar_energy": "J/mol", "molar_entropy": "J/(mol*K)",
+    "density": "kg/m^3", "viscosity": "Pa*s", "heat_transfer_coefficient": "W/(m^2*K)",
+    "temperature_difference": "K",
 }
 
 _EXAMPLES = {
@@ -67,9 +98,53 @@ def registry():
     import pint
 
     try:  # the parsed definitions are cached on disk (~0.02 s instead of ~0.2 s per start)
-        return pint.UnitRegistry(autoconvert_offset_to_baseunit=False, cache_folder=":auto:")
+        ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=False, cache_folder=":auto:")
     except OSError:  # no writable cache folder: build it in memory
-        return pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
+        ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
+    ureg.define("psia = psi")
+    ureg.define("bara = bar")
+    ureg.define("pound_mole = 453.59237 * mole = lbmol = lb_mol")
+    ureg.define(f"normal_cubic_meter = {NORMAL_CUBIC_METRE!r} * mole = normal_cubic_metre")
+    return ureg
+
+
+def is_normal_volume(text):
+    """True when a value is written in normal cubic metres (``"1200 Nm^3/h"``): a molar amount.
+
+    Examples
+    --------
+    >>> is_normal_volume("1200 Nm^3/h"), is_normal_volume("3 m^3/h")
+    (True, False)
+    """
+    return isinstance(text, str) and _NORMAL_VOLUME.search(text) is not None
+
+
+def gauge_hint(number, unit):
+    """The absolute pressure for a gauge value, as text in the unit written, or None if not gauge.
+
+    Absolute = gauge + 1 atm (:data:`P_ATMOSPHERE`, 101.325 kPa) expressed in the gauge's
+    own unit, e.g. ``gauge_hint(58, "psig")`` -> ``"72.6959 psia"``.
+
+    Examples
+    --------
+    >>> gauge_hint(58.0, "psig")
+    '72.6959 psia'
+    >>> gauge_hint(5.0, "bar gauge")
+    '6.01325 bar'
+    >>> gauge_hint(2000.0, "kPa(g)")
+    '2101.325 kPa'
+    >>> gauge_hint(5.0, "bar") is None
+    True
+    """
+    match = _GAUGE.match(unit.strip())
+    if match is None:
+        return None
+    base, absolute, decimals = _GAUGE_BASE[match.group(1).lower()]
+    atmosphere = registry().Quantity(P_ATMOSPHERE, "Pa").to(base).magnitude
+    written = repr(float(number)).partition(".")[2]
+    decimals = min(9, max(decimals, 0 if "e" in written or written == "0" else len(written)))
+    text = f"{number + atmosphere:.{decimals}f}"
+    return f"{text.rstrip('0').rstrip('.') if '.' in text else text} {absolute}"
 
 
 def _quantity(text, where):
@@ -78,11 +153,14 @@ def _quantity(text, where):
     if match is None:
         raise UnitError(f"{where} = {text!r}: not a number followed by a unit")
     number, unit = float(match.group(1)), match.group(2)
-    if _GAUGE.match(unit.replace(" ", "")):
+    hint = gauge_hint(number, unit)
+    if hint is not None:
         raise UnitError(
-            f"{where} = {text!r}: gauge pressure is not accepted; give absolute pressure, "
-            f'e.g. "{number + 1.01325:g} bar" for {number:g} barg.'
+            f"{where} = {text!r}: gauge pressure is not accepted; give absolute pressure, e.g. "
+            f'"{hint}" (gauge + atmospheric, assuming an atmospheric pressure of 101.325 kPa; '
+            "use the local one if it differs)."
         )
+    unit = _NORMAL_VOLUME.sub("normal_cubic_meter", unit)
     try:
         return ureg.Quantity(number, unit or "dimensionless")
     except Exception as err:  # pint raises several unrelated types for unknown units
@@ -126,6 +204,18 @@ def parse_quantity(value, dimension, where, si_unit=None):
         raise UnitError(
             f"{where} = {value!r}: needs a unit; write it as text with its unit, e.g. {example}."
         )
+    try:
+        result = _to_si(value, dimension, where, si_unit)
+    except (OverflowError, ZeroDivisionError, ArithmeticError) as err:
+        raise UnitError(f"{where} = {value!r}: cannot be converted to SI units ({err.__class__.__name__}); "
+                        "check the exponents.") from err
+    if not math.isfinite(result):
+        raise UnitError(f"{where} = {value!r}: not a finite number")
+    return result
+
+
+def _to_si(value, dimension, where, si_unit):
+    """Body of :func:`parse_quantity`: parse, check the dimension, convert (may overflow)."""
     ureg = registry()
     quantity = _quantity(value, where)
     expected = DIMENSIONS.get(dimension, dimension)
@@ -138,7 +228,7 @@ def parse_quantity(value, dimension, where, si_unit=None):
             else ureg.get_dimensionality(expected)
     except Exception:  # composite given as a unit string
         target_dim = ureg.Quantity(1, expected).dimensionality
-    if quantity.dimensionality != target_dim:
+    if not same_dimension(quantity.dimensionality, target_dim):
         example = _EXAMPLES.get(dimension)
         hint = f"e.g. {example}" if example else f"units of {expected}"
         raise UnitError(
@@ -146,10 +236,24 @@ def parse_quantity(value, dimension, where, si_unit=None):
             f"expected {dimension if example else 'dimension ' + str(target_dim)}, {hint}."
         )
     si = quantity.to(si_unit) if si_unit else quantity.to_base_units()
-    result = float(si.magnitude)
-    if not math.isfinite(result):
-        raise UnitError(f"{where} = {value!r}: not a finite number")
-    return result
+    return float(si.magnitude)
+
+
+def same_dimension(first, second, tolerance=1e-9):
+    """True when two pint dimensionalities have the same exponents within ``tolerance``.
+
+    Exponents built from decimal reaction orders carry rounding errors (3 * 1.8 - 3 =
+    2.4000000000000004), so an exact comparison would refuse a unit written as m^2.4.
+
+    Examples
+    --------
+    >>> ureg = registry()
+    >>> same_dimension(ureg.Quantity(1, "m**2.4").dimensionality,
+    ...                ureg.Quantity(1, "m**(3 * 1.8 - 3)").dimensionality)
+    True
+    """
+    keys = set(first) | set(second)
+    return all(abs(first.get(k, 0.0) - second.get(k, 0.0)) <= tolerance for k in keys)
 
 
 def si_unit_text(dimensionality_text):

@@ -22,7 +22,7 @@ LAYERS = [
     ("model", "results"),
     ("solve", "output"),
     ("sweeps",),
-    ("screening", "assumptions", "sizing"),
+    ("screening", "assumptions", "sizing", "readiness"),
     ("report",),
     ("cli", "__main__", "__init__"),
 ]

@@ -11,13 +11,17 @@ import tomllib
 from pathlib import Path
 
 from simulator.case.equation import parse_equation
+from simulator.case.limits import (
+    MAX_FILE_BYTES, MAX_STEPS_FOR_MAX_STEP, MIN_FLOW_PER_TUBE, MIN_MOLE_FRACTION, MIN_ORDER, ORDER_RANGE,
+    range_problem, structure_problem,
+)
 from simulator.case.schema import (
     AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, InhibitionTerm, PressureDrop,
     Reaction, SolverOptions, Thermo, Tube,
 )
 from simulator.errors import CaseError, ThermoError, UnitError
 from simulator.thermo.species_data import near, resolve_species_file, species_in_file
-from simulator.units import parse_quantity
+from simulator.units import SI_UNITS, is_normal_volume, parse_quantity
 
 NAN = float("nan")
 
@@ -68,6 +72,8 @@ RENAMED_VALUES = {
     ("reactions.*", "rate_basis", "volume"): 'rate_basis = "reactor-volume"',
 }
 PRESSURE_MODELS = ("none", "ergun", "pipe-friction")
+#: Unknown species that get did-you-mean hints; the rest are listed plainly.
+MAX_HINTS = 20
 FRICTION = ("churchill-1977", "colebrook-1939", "blasius-1913", "laminar")
 EOS = ("ideal-gas", "peng-robinson")
 
@@ -123,6 +129,14 @@ class _Checker:
             rel = ">" if strict else ">="
             self.fail(f"{path}.{key}", f" = {table[key]!r}: must be {rel} {minimum:g}.")
             return NAN
+        return self.plausible(f"{path}.{key}", table[key], value, SI_UNITS.get(dimension, ""))
+
+    def plausible(self, path, written, value, unit=""):
+        """``value`` if inside its plausible range (:mod:`simulator.case.limits`), else NaN and a problem."""
+        problem = range_problem(path, value, unit)
+        if problem is not None:
+            self.fail(path, f" = {written!r}: {problem}; check the number and its unit.")
+            return NAN
         return value
 
     def number(self, table, key, path, default=NAN, lo=None, hi=None, lo_open=False, hi_open=False,
@@ -146,7 +160,7 @@ class _Checker:
             hi_s = "" if hi is None else f"{'<' if hi_open else '<='} {hi:g}"
             self.fail(f"{path}.{key}", f" = {value!r}: must be {' and '.join(s for s in (lo_s, hi_s) if s)}.")
             return default
-        return value
+        return value if self.plausible(f"{path}.{key}", value, value) == value else default
 
     def choice(self, table, key, path, choices, default=None, pattern=None):
         if key not in table:
@@ -186,14 +200,34 @@ def load_case(path):
     """
     path = Path(path)
     try:
-        text = path.read_text(encoding="utf-8")
+        data = path.read_bytes()
     except OSError as err:
-        raise CaseError(f"{path}: cannot read the case file ({err.strerror})") from err
+        raise CaseError(f"{path}: cannot read the case file ({err.strerror or err})") from err
+    if len(data) > MAX_FILE_BYTES:
+        raise CaseError(f"{path}: a case file of {len(data)} bytes; at most {MAX_FILE_BYTES} are read (a case is a "
+                        "few kilobytes).")
+    text = _decode(path, data)
     try:
         raw = tomllib.loads(text)
     except tomllib.TOMLDecodeError as err:
         raise CaseError(f"{path}: not valid TOML: {err}") from err
+    except RecursionError as err:
+        raise CaseError(f"{path}: not a usable case: arrays or tables nested too deeply.") from err
     return load_case_dict(raw, source_path=str(path))
+
+
+def _decode(path, data):
+    """The text of a case file; a file that is not UTF-8 text is refused with what it seems to be."""
+    if data.startswith((b"\xff\xfe", b"\xfe\xff")) or (len(data) > 1 and b"\x00" in data[:2]):
+        raise CaseError(f"{path}: the case file is saved as UTF-16; save it as UTF-8 text.")
+    if b"\x00" in data:
+        raise CaseError(f"{path}: not a text file (it contains NUL bytes); a case file is UTF-8 TOML text.")
+    try:
+        return data.decode("utf-8-sig")
+    except UnicodeDecodeError as err:
+        line = data[:err.start].count(b"\n") + 1
+        raise CaseError(f"{path}: not UTF-8 text (byte 0x{data[err.start]:02x} on line {line}); save the case "
+                        "file as UTF-8.") from None
 
 
 def load_case_dict(raw, source_path="", case_dir=None):
@@ -213,6 +247,9 @@ def load_case_dict(raw, source_path="", case_dir=None):
     Case
     """
     where = f"{source_path}: " if source_path else ""
+    shape = structure_problem(raw)
+    if shape is not None:
+        raise CaseError(f"{where}{shape}.")
     case_dir = case_dir or (str(Path(source_path).parent) if source_path else ".")
     ck = _Checker(where)
     ck.keys(raw, KEYS[""], "")
@@ -239,6 +276,7 @@ def load_case_dict(raw, source_path="", case_dir=None):
             and design.temperature_limit <= feed.temperature:
         ck.fail("design.temperature_limit", f" = {raw['design'].get('temperature_limit')!r}: must be above the feed "
                 f"temperature ({feed.temperature:.6g} K).")
+    _check_sizes(ck, raw, feed, tube, bed, solver)
     if any(r.rate_basis == "catalyst-mass" for r in reactions) and bed is None:
         ck.fail("reactions", ': rate_basis = "catalyst-mass" needs a [bed] table with bulk_density.')
 
@@ -250,6 +288,25 @@ def load_case_dict(raw, source_path="", case_dir=None):
     return Case(title=title.strip(), source_path=source_path, thermo=thermo, reactions=tuple(reactions),
                 feed=feed, tube=tube, heat=heat, pressure_drop=pdrop, design=design, bed=bed, solver=solver,
                 assumptions=thresholds, species=tuple(species), raw=raw, source=str(raw.get("source", "")))
+
+
+def _check_sizes(ck, raw, feed, tube, bed, solver):
+    """Checks that need two fields: flow per tube, particle vs tube diameter, max_step vs length."""
+    per_tube = feed.flow_value / tube.count
+    lowest = MIN_FLOW_PER_TUBE[feed.flow_kind]
+    if per_tube < lowest:
+        unit = {"molar_flow": "mol/s", "mass_flow": "kg/s", "volumetric_flow": "m^3/s"}[feed.flow_kind]
+        key = next(k for k in ("molar_flow", "mass_flow", "volumetric_flow") if k in raw["feed"])
+        tubes = f"{tube.count} tube{'' if tube.count == 1 else 's'}"
+        ck.fail(f"feed.{key}", f" = {raw['feed'][key]!r}: {per_tube:.3g} {unit} per tube over {tubes}, below the "
+                f"plausible {lowest:g} {unit} per tube of this model; check the number, its unit and tube.count.")
+    if bed is not None and bed.particle_diameter >= tube.inner_diameter:
+        ck.fail("bed.particle_diameter", f" = {raw['bed']['particle_diameter']!r}: not smaller than "
+                f"tube.inner_diameter ({raw['tube']['inner_diameter']!r}); the particles cannot fit in the tube.")
+    if solver.max_step > 0 and tube.length / solver.max_step > MAX_STEPS_FOR_MAX_STEP:
+        ck.fail("solver.max_step", f" = {raw['solver']['max_step']!r}: tube.length / max_step = "
+                f"{tube.length / solver.max_step:.3g} steps, more than the {MAX_STEPS_FOR_MAX_STEP} a run may take; "
+                f"give at least {tube.length / MAX_STEPS_FOR_MAX_STEP:.3g} m.")
 
 
 def _thermo(ck, raw, case_dir):
@@ -339,9 +396,15 @@ def _reactions(ck, raw):
             for s, o in orders_raw.items():
                 if isinstance(o, bool) or not isinstance(o, (int, float)) or not math.isfinite(o):
                     ck.fail(f"{path}.orders.{s}", f" = {o!r}: must be a plain number.")
+                elif 0.0 < abs(o) < MIN_ORDER:
+                    ck.fail(f"{path}.orders.{s}", f" = {o!r}: below {MIN_ORDER:g} in size, too small to mean anything; "
+                            "write 0 for a zero order.")
+                elif not ORDER_RANGE[0] <= o <= ORDER_RANGE[1]:
+                    ck.fail(f"{path}.orders.{s}", f" = {o!r}: outside the plausible range {ORDER_RANGE[0]:g} to "
+                            f"{ORDER_RANGE[1]:g} of a reaction order.")
                 else:
                     orders[s] = float(o)
-        n = sum(orders.values())
+        n = _round_order(sum(orders.values()))
         activity, rate = _activity_unit(driving), _rate_unit(per)
         expected = f"({rate}) / ({activity})**({n!r})"
         A = NAN
@@ -383,6 +446,20 @@ def _reactions(ck, raw):
     return out
 
 
+def _round_order(total):
+    """An order sum rounded to 12 significant digits (1.4 + 0.4 = 1.7999999999999998 -> 1.8).
+
+    The unit a rate constant must have is built from it, so the rounding error of a sum of
+    decimal orders does not make ``(mol/m^3)^1.8`` a different unit.
+
+    Examples
+    --------
+    >>> _round_order(1.4 + 0.4)
+    1.8
+    """
+    return float(f"{total:.12g}")
+
+
 def _rate_constant_example(n, in_terms_of, rate_basis):
     """A pasteable unit for a pre-exponential factor in the user's own basis, e.g. mol/(kg*s*bar^1.5)."""
     rate = "mol/(kg*s" if rate_basis == "catalyst-mass" else "mol/(m^3*s"
@@ -412,7 +489,13 @@ def _inhibition(ck, r, path, activity):
         if not isinstance(exps, dict) or not exps:
             ck.fail(f"{p}.species", ": must be a table of exponents such as { A = 1 }.")
             continue
-        total = sum(float(v) for v in exps.values() if isinstance(v, (int, float)))
+        bad = [s for s, v in exps.items()
+               if isinstance(v, bool) or not isinstance(v, (int, float)) or not (0.0 <= v <= 4.0)]
+        for s in bad:
+            ck.fail(f"{p}.species.{s}", f" = {exps[s]!r}: an exponent must be a plain number from 0 to 4.")
+        if bad:
+            continue
+        total = _round_order(sum(float(v) for v in exps.values()))
         K0 = NAN
         try:
             K0 = parse_quantity(a.get("pre_exponential"), f"1/({activity})**({total!r})", "")
@@ -439,7 +522,12 @@ def _feed(ck, raw):
                 f"{', '.join(given) or 'none'}).")
     else:
         kind = given[0]
-        value = ck.quantity(f, kind, kind, "feed", minimum=0.0)
+        if kind == "volumetric_flow" and is_normal_volume(f[kind]):
+            # a normal volumetric flow (Nm^3/h) is a molar flow: P_N V / (R T_N), see simulator.units
+            value = ck.quantity(f, kind, "molar_flow", "feed", minimum=0.0)
+            kind = "molar_flow"
+        else:
+            value = ck.quantity(f, kind, kind, "feed", minimum=0.0)
     x = f.get("mole_fractions")
     fractions = []
     if not isinstance(x, dict) or not x:
@@ -450,11 +538,15 @@ def _feed(ck, raw):
             if isinstance(v, bool) or not isinstance(v, (int, float)) or not (0.0 <= v <= 1.0):
                 ck.fail(f"feed.mole_fractions.{s}", f" = {v!r}: must be a plain number between 0 and 1.")
                 ok = False
+            elif 0.0 < v < MIN_MOLE_FRACTION:
+                ck.fail(f"feed.mole_fractions.{s}", f" = {v!r}: below {MIN_MOLE_FRACTION:g}, too small to mean "
+                        "anything; write 0 for an absent species.")
+                ok = False
             else:
                 fractions.append((s, float(v)))
         total = sum(v for _, v in fractions)
         if ok and abs(total - 1.0) > 1e-6:
-            ck.fail("feed.mole_fractions", f": sum to {total:.6g}; they must sum to 1 (within 1e-6).")
+            ck.fail("feed.mole_fractions", f": sum to {total:.12g}; they must sum to 1 (within 1e-6).")
         elif ok:
             fractions = [(s, v / total) for s, v in fractions]
     return Feed(temperature=T, pressure=P, mole_fractions=tuple(fractions), flow_kind=kind, flow_value=value)
@@ -528,7 +620,7 @@ def _design(ck, raw):
     d = ck.table(raw, "design", "design")
     ck.keys(d, KEYS["design"], "design")
     key = d.get("key_species")
-    if not isinstance(key, str):
+    if not isinstance(key, str) or not key.strip():
         ck.fail("design.key_species", f" = {key!r}: name the reactant whose conversion is tracked.")
         key = ""
     return Design(key_species=key,
@@ -582,10 +674,13 @@ def _check_species(ck, species, thermo, reactions, feed, design):
     known = custom | set(in_file)
     where_from = f"'{thermo.species_file}' or [thermo.custom]" if thermo.species_file else "[thermo.custom]"
 
+    unknown = []
+
     def check(name, path):
         if name in known:
             return True
-        hint = near(name, known)
+        unknown.append(name)
+        hint = near(name, known) if len(unknown) <= MAX_HINTS else []     # difflib is slow on thousands
         extra = f"; did you mean {', '.join(repr(h) for h in hint)}?" if hint else ""
         if name[:1].isdigit():
             extra += " Put a space between a coefficient and its species (\"2 B\")."

@@ -487,6 +487,30 @@ CHECKS = ({'key': 'levenspiel1999',
   'where': 'boundary on a sweep grid of the Froment (1967) tube; 0.01777 atm from an independent '
            'reproduction',
   'test': 'tests/test_sweep_cli.py::test_sweep_boundary_matches_the_morbidelli_varma_critical_value'},
+ {'key': 'coolprop',
+  'citation': "I.H. Bell, J. Wronski, S. Quoilin, V. Lemort, 'Pure and pseudo-pure fluid thermophysical "
+              "property evaluation and the open-source thermophysical property library CoolProp', Ind. Eng. "
+              'Chem. Res. 53(6), 2498-2508, 2014',
+  'compared': 'Reference compressibility factors and enthalpies of methane and nitrogen, and ideal-gas heat '
+              'capacities of H2, N2, CH4 and H2O, used in the real-gas and enthalpy-balance checks',
+  'where': 'Peng-Robinson compressibility factor of pure ethanol at 560 K and 40 bar',
+  'test': 'tests/test_thermo_critical.py::test_pure_ethanol_compressibility_at_560_K_and_40_bar_against_coolprop_peng_robinson'},
+ {'key': 'iapws95',
+  'citation': "W. Wagner, A. Pruss, 'The IAPWS formulation 1995 for the thermodynamic properties of ordinary "
+              "water substance for general and scientific use', J. Phys. Chem. Ref. Data 31(2), 387-535, "
+              '2002',
+  'compared': "Critical point of water in the built-in critical-constants table (with CoolProp's reference "
+              'equation of state as an independent check)',
+  'where': 'critical point of water, Tc = 647.096 K, pc = 22.064 MPa',
+  'test': 'tests/test_thermo_critical.py::test_critical_constants_of_water_ammonia_and_other_common_species_against_reference_equations_of_state'},
+ {'key': 'coolprop',
+  'citation': "I.H. Bell, J. Wronski, S. Quoilin, V. Lemort, 'Pure and pseudo-pure fluid thermophysical "
+              "property evaluation and the open-source thermophysical property library CoolProp', Ind. Eng. "
+              'Chem. Res. 53(6), 2498-2508, 2014',
+  'compared': 'Reference compressibility factors and enthalpies of methane and nitrogen, and ideal-gas heat '
+              'capacities of H2, N2, CH4 and H2O, used in the real-gas and enthalpy-balance checks',
+  'where': 'critical temperature, critical pressure and acentric factor of the reference equations of state',
+  'test': 'tests/test_thermo_critical.py::test_critical_constants_of_water_ammonia_and_other_common_species_against_reference_equations_of_state'},
  {'key': 'chase1998',
   'citation': 'M.W. Chase, NIST-JANAF Thermochemical Tables, 4th ed., J. Phys. Chem. Ref. Data Monograph 9, '
               '1998',
