@@ -28,6 +28,7 @@ import numpy as np
 from scipy.integrate import ODEintWarning, odeint
 from scipy.optimize import brentq
 
+from simulator.case.plausibility import plausibility_warnings
 from simulator.model import kernel as model_kernel
 from simulator.model import kernels
 from simulator.model.build import build_model
@@ -554,6 +555,7 @@ def _simulate(case, model=None, length=None):
     notes += closure_warnings(clos)
     notes += range_warnings(model, ys)
     notes += model_warnings(model, ys, zs, hot)
+    notes += plausibility_warnings(case)
     rise, rise_info = model.adiabatic
     elapsed = time.perf_counter() - started
     stats = {"method": "LSODA (scipy.integrate.odeint)",
