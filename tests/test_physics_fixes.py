@@ -4,6 +4,7 @@ constant-moles variant of the assumption check on Peng-Robinson.
 Kinds of check (DEVELOPERS.md): ``published`` against Cantera used as an independent
 reference library; ``invariant`` for the normalisation.
 """
+import dataclasses
 import json
 
 import numpy as np
@@ -181,9 +182,11 @@ def test_peng_robinson_energy_balance_closes_where_a_product_is_still_absent(cas
     yet) closes its energy balance to solver precision. Before the fix the departure derivative
     along dF/dz was a central difference across F_CH3OH = 0, whose backward side the mixture clips,
     so the inlet carried ~1 % of the local reaction heat as error (closure 1.1e-5 over 1 um)."""
-    text = (cases_dir / "methanol_synthesis_real_gas.toml").read_text().replace('length = "8 m"', f'length = "{length}"')
-    path = tmp_path / "short.toml"
-    path.write_text(text)
-    result = simulate(load_case(path))
+    # the tube is cut after loading: the loader refuses tubes below 1 cm as a design input, but the
+    # balance at the inlet is what is tested here
+    case = load_case(cases_dir / "methanol_synthesis_real_gas.toml")
+    metres = {"1 um": 1e-6, "1 mm": 1e-3}[length]
+    case = dataclasses.replace(case, tube=dataclasses.replace(case.tube, length=metres))
+    result = simulate(case)
     assert result.status == "completed"
     assert result.closure["energy_relative"] < 1e-8

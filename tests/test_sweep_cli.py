@@ -239,10 +239,10 @@ def test_exceedance_figure_states_the_samples_and_what_was_left_out(cases_dir, t
 
 
 @pytest.mark.parametrize("verb, extra, message", [
-    ("uncertainty", ["--seed", "-1"], "--seed -1: must be a whole number from 0"),       # before: numpy traceback
-    ("uncertainty", ["--batch-size", "0", "--engine", "pool"], "--batch-size 0: must be a whole number >= 1"),
+    ("uncertainty", ["--seed", "-1"], "argument --seed: '-1': must be a whole number >= 0"),       # before: numpy traceback
+    ("uncertainty", ["--batch-size", "0", "--engine", "pool"], "argument --batch-size: '0': must be a whole number >= 1"),
     ("uncertainty", ["--samples", "20000000"], "--samples 20000000: at most 10000000 samples"),
-    ("sweep", ["--batch-size", "0", "--engine", "pool"], "--batch-size 0: must be a whole number >= 1"),
+    ("sweep", ["--batch-size", "0", "--engine", "pool"], "argument --batch-size: '0': must be a whole number >= 1"),
     ("sweep", ["--vary", "heat.medium.temperature=620 K..640 K in 2000000000"], "at most 10000000 values"),
 ])
 def test_bad_sweep_options_exit_2_with_one_line_and_write_nothing(cases_dir, tmp_path, capsys, verb, extra, message):
