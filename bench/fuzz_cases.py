@@ -878,9 +878,7 @@ def call_cli(argv, budget):
         last = f"SystemExit({exc.code!r}) escaped main"
     except BaseException as exc:  # noqa: BLE001 - any escaping exception is the finding
         kind = "uncaught-exception"
-        tb = traceback.extract_tb(exc.__traceback__)
-        where = f" at {Path(tb[-1].filename).name}:{tb[-1].lineno} {tb[-1].name}" if tb else ""
-        last = f"{type(exc).__name__}: {str(exc)[:200]}{where}"
+        last = f"{type(exc).__name__}: {str(exc)[:200]}" + _innermost(exc.__traceback__)
     finally:
         signal.setitimer(signal.ITIMER_REAL, 0)
         signal.signal(signal.SIGALRM, previous)
@@ -888,9 +886,30 @@ def call_cli(argv, budget):
 
 
 def _innermost(tb):
+    """The innermost frame and the three innermost frames of the package, innermost first."""
     frames = traceback.extract_tb(tb)
-    inner = [f for f in frames if "simulator" in f.filename][-3:]
-    return " [" + " <- ".join(f"{Path(f.filename).name}:{f.lineno} {f.name}" for f in reversed(inner)) + "]"
+    inner = [f for f in frames if f"{os.sep}simulator{os.sep}" in f.filename][-3:]
+    text = [f"{Path(f.filename).name}:{f.lineno} {f.name}" for f in reversed(inner)]
+    if frames and (not inner or frames[-1] is not inner[-1]):
+        text.insert(0, f"~{Path(frames[-1].filename).name}:{frames[-1].lineno} {frames[-1].name}")
+    return " [" + " <- ".join(text) + "]"
+
+
+def violation_class(kind, verb, detail):
+    """Class of a violation for the counts: kind and verb, and for exceptions and hangs also the
+    exception type and the innermost function of the package (``load.py load_case``)."""
+    if kind not in ("uncaught-exception", "hang"):
+        return f"{kind} ({verb})"
+    match = re.search(r"\[([^\]]*)\]$", detail)
+    frames = [f for f in match.group(1).split(" <- ") if not f.startswith("~")] if match else []
+    where = re.sub(r":\d+ ", " ", frames[0]) if frames else "?"
+    what = detail.split(":", 1)[0] if kind == "uncaught-exception" else "hang"
+    return f"{kind} ({verb}): {what} in {where}"
+
+
+def scratch_root():
+    """Folder for case files and --out folders: in memory where possible (the tool fsyncs every output)."""
+    return "/dev/shm" if os.path.isdir("/dev/shm") and os.access("/dev/shm", os.W_OK) else None
 
 
 def run_case(data, calls, workdir, budget_scale=1.0):
@@ -1055,6 +1074,7 @@ def main(argv=None):
     exit_counts = Counter()
     violation_counts = Counter()
     first = {}
+    every = []
     seconds = Counter()
     n_calls = Counter()
     cases_with_violation = 0
@@ -1072,11 +1092,13 @@ def main(argv=None):
                 n_calls[rec["verb"]] += 1
             for kind, detail in rec["problems"]:
                 bad = True
-                key = (kind, rec["verb"])
+                key = violation_class(kind, rec["verb"], detail)
                 violation_counts[key] += 1
+                every.append({"case": index, "class": key, "detail": detail[:300], "notes": notes})
                 if key not in first:
-                    first[key] = {"case": index, "detail": detail, "argv": rec["argv"], "notes": notes,
-                                  "stderr_tail": rec["stderr_tail"], "data": data}
+                    first[key] = {"case": index, "kind": kind, "verb": rec["verb"], "detail": detail,
+                                  "argv": rec["argv"], "notes": notes, "stderr_tail": rec["stderr_tail"],
+                                  "data": data}
                 if keep:
                     (keep / f"case{index:05d}.toml").write_bytes(data)
                     (keep / f"case{index:05d}.txt").write_text(
@@ -1088,9 +1110,11 @@ def main(argv=None):
             rate = done[0] / max(time.monotonic() - start, 1e-9)
             print(f"  {done[0]} / {len(tasks)} cases, {cases_with_violation} with a violation, {rate:.1f} cases/s",
                   file=sys.stderr, flush=True)
+            if args.json:                        # partial results while a long run goes on
+                _write_json(args, done[0], time.monotonic() - start, exit_counts, violation_counts, first, every)
 
     from simulator import cli  # noqa: F401 - import once in the parent; forked workers share it
-    scratch = tempfile.mkdtemp(prefix="tubesim-fuzz-")
+    scratch = tempfile.mkdtemp(prefix="tubesim-fuzz-", dir=scratch_root())
     pool = Pool(args.workers, scratch)
     try:
         pool.run((t[:3] for t in tasks), lambda task, recs: on_result(tasks[task[0]], recs))
@@ -1109,22 +1133,37 @@ def main(argv=None):
                   + f"   (mean {mean:.2f} s)")
     total = sum(violation_counts.values())
     print(f"violations: {total} in {cases_with_violation} cases")
-    for (kind, verb), n in sorted(violation_counts.items(), key=lambda kv: -kv[1]):
-        print(f"  {n:6d}  {kind} ({verb})")
-    for (kind, verb), rep in sorted(first.items()):
-        print(f"\n--- first {kind} ({verb}): case {rep['case']}")
+    for key, n in sorted(violation_counts.items(), key=lambda kv: -kv[1]):
+        print(f"  {n:6d}  {key}")
+    for key, rep in sorted(first.items()):
+        print(f"\n--- first {key}: case {rep['case']}")
         print(f"    detail:    {rep['detail']}")
         print(f"    argv:      {' '.join(rep['argv'])}")
         print(f"    mutations: {'; '.join(rep['notes'])[:400]}")
     if args.json:
-        Path(args.json).write_text(json.dumps({
-            "cases": len(tasks), "seed": args.seed, "verbs": args.verb_list, "seconds": elapsed,
-            "exit_codes": [[v, c, n] for (v, c), n in exit_counts.items()],
-            "violations": [[k, v, n] for (k, v), n in violation_counts.items()],
-            "first": [{"kind": k, "verb": v, **{x: y for x, y in rep.items() if x != "data"},
-                       "case_text": rep["data"].decode("utf-8", errors="backslashreplace")}
-                      for (k, v), rep in first.items()]}, indent=1, default=str), encoding="utf-8")
+        _write_json(args, len(tasks), elapsed, exit_counts, violation_counts, first, every)
     return 1 if total else 0
+
+
+def case_text(data):
+    """The case file for a message: its text, or the repr of its first bytes when it is not clean UTF-8."""
+    try:
+        text = data.decode("utf-8")
+    except UnicodeDecodeError:
+        text = None
+    if text is None or "\x00" in text:
+        return repr(data[:600]) + (" ..." if len(data) > 600 else "")
+    return text
+
+
+def _write_json(args, cases, elapsed, exit_counts, violation_counts, first, every):
+    Path(args.json).write_text(json.dumps({
+        "cases": cases, "seed": args.seed, "verbs": args.verb_list, "seconds": elapsed,
+        "exit_codes": [[v, c, n] for (v, c), n in exit_counts.items()],
+        "violations": dict(violation_counts),
+        "first": [{"class": key, **{x: y for x, y in rep.items() if x != "data"}, "case_text": case_text(rep["data"])}
+                  for key, rep in first.items()],
+        "every": every}, indent=1, default=str), encoding="utf-8")
 
 
 if __name__ == "__main__":

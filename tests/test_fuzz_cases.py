@@ -35,7 +35,7 @@ EXAMPLES = 150
 
 
 def _describe(data, records, notes):
-    text = data.decode("utf-8", errors="backslashreplace")
+    text = FUZZ.case_text(data)
     lines = [f"{kind} ({rec['verb']}, exit {rec['code']}): {detail}" for rec in records
              for kind, detail in rec["problems"]]
     return "\n".join(lines + [f"mutations: {'; '.join(notes)}", "case file:", text[:3000]])
@@ -47,7 +47,7 @@ def _describe(data, records, notes):
 @given(rng=st.randoms(use_true_random=False))
 def test_generated_cases_keep_the_command_line_contract(rng):
     data, calls, notes = FUZZ.generate_case(rng, DEMOS, verbs=("validate", "run"))
-    with tempfile.TemporaryDirectory(prefix="tubesim-fuzz-") as work:
+    with tempfile.TemporaryDirectory(prefix="tubesim-fuzz-", dir=FUZZ.scratch_root()) as work:
         records = FUZZ.run_case(data, calls, work)
     assert not any(rec["problems"] for rec in records), _describe(data, records, notes)
 
