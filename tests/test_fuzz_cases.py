@@ -41,11 +41,17 @@ def _describe(data, records, notes):
     return "\n".join(lines + [f"mutations: {'; '.join(notes)}", "case file:", text[:3000]])
 
 
+@pytest.fixture(scope="module")
+def warmed_up():
+    """The unit registry and compiled kernel loaded before the first budgeted call."""
+    FUZZ.warm_up()
+
+
 @settings(max_examples=EXAMPLES, deadline=None, derandomize=True, database=None,
           phases=(Phase.explicit, Phase.generate),  # no shrinking: a failing case is printed whole
           suppress_health_check=(HealthCheck.too_slow, HealthCheck.data_too_large))
 @given(rng=st.randoms(use_true_random=False))
-def test_generated_cases_keep_the_command_line_contract(rng):
+def test_generated_cases_keep_the_command_line_contract(warmed_up, rng):
     data, calls, notes = FUZZ.generate_case(rng, DEMOS, verbs=("validate", "run"))
     with tempfile.TemporaryDirectory(prefix="tubesim-fuzz-", dir=FUZZ.scratch_root()) as work:
         records = FUZZ.run_case(data, calls, work)
