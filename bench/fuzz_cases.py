@@ -805,8 +805,13 @@ def _profile_problems(path):
     return problems
 
 
-def check_call(verb, code, stdout, stderr, out_dir, validate_code=None):
-    """Contract violations of one verb call: a list of (kind, detail)."""
+def check_call(verb, code, stdout, stderr, out_dir, validate_code=None, validate_text=""):
+    """Contract violations of one verb call: a list of (kind, detail).
+
+    ``validate_code`` and ``validate_text`` are the exit code and output of ``validate`` on the same
+    case: a case that ``validate`` accepts must not be refused as bad by ``run``, nor by
+    ``assumptions``, ``size`` or ``screen`` unless ``validate`` named that verb in its output.
+    """
     problems = []
     if code not in (0, 1, 2):
         problems.append(("bad-exit-code", f"exit {code!r}"))
@@ -820,7 +825,8 @@ def check_call(verb, code, stdout, stderr, out_dir, validate_code=None):
     files = sorted(p for p in out_dir.rglob("*") if p.is_file()) if out_dir is not None and out_dir.exists() else []
     if code == 2 and files:
         problems.append(("exit-2-wrote-files", ", ".join(p.name for p in files[:5])))
-    if (code == 2 and validate_code == 0 and verb in ("run", "assumptions", "size", "screen")):
+    named = verb != "run" and re.search(rf"\b{verb}\b", validate_text)
+    if code == 2 and validate_code == 0 and verb in ("run", "assumptions", "size", "screen") and not named:
         first = next((ln for ln in stderr.splitlines() if ln.startswith("error")), "")
         problems.append(("validate-passes-verb-refuses", first[:300]))
     if code == 0 and out_dir is not None:
@@ -932,7 +938,7 @@ def run_case(data, calls, workdir, budget_scale=1.0):
     case = workdir / "case.toml"
     case.write_bytes(data)
     records = []
-    validate_code = None
+    validate_code, validate_text = None, ""
     for i, (verb, extra) in enumerate(calls):
         out = workdir / f"out{i}_{verb}"
         argv = [verb, str(case)] + list(extra) + ([] if verb == "validate" else ["--out", str(out)])
@@ -941,9 +947,10 @@ def run_case(data, calls, workdir, budget_scale=1.0):
         if kind is not None:
             problems.append((kind, last))
         else:
-            problems.extend(check_call(verb, code, stdout, stderr, None if verb == "validate" else out, validate_code))
+            problems.extend(check_call(verb, code, stdout, stderr, None if verb == "validate" else out,
+                                       validate_code, validate_text))
         if verb == "validate":
-            validate_code = code
+            validate_code, validate_text = code, stdout + stderr
         records.append({"verb": verb, "argv": argv[:1] + ["case.toml"] + argv[2:], "code": code,
                         "seconds": round(seconds, 3), "problems": problems,
                         "stderr_tail": stderr.strip().splitlines()[-1][:300] if stderr.strip() else ""})

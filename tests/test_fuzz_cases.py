@@ -108,6 +108,16 @@ def test_contract_checks_flag_exit_codes_tracebacks_and_files_after_exit_2(tmp_p
     assert {k for k, _ in FUZZ.check_call("validate", 3, "", "error: x\n", None)} == {"bad-exit-code"}
 
 
+def test_a_verb_may_refuse_what_validate_named_for_it_but_run_may_not(tmp_path):
+    refused = "error: case.toml: design.target_conversion: missing; sizing needs a target.\n"
+    named = "case.toml: valid (...)\nnote: size needs design.target_conversion\n"
+    assert FUZZ.check_call("size", 2, "", refused, tmp_path, validate_code=0, validate_text=named) == []
+    assert [k for k, _ in FUZZ.check_call("size", 2, "", refused, tmp_path, validate_code=0,
+                                          validate_text="case.toml: valid\n")] == ["validate-passes-verb-refuses"]
+    assert [k for k, _ in FUZZ.check_call("run", 2, "", refused, tmp_path, validate_code=0,
+                                          validate_text="note: run needs it\n")] == ["validate-passes-verb-refuses"]
+
+
 def test_a_verb_over_its_budget_is_reported_as_a_hang(monkeypatch):
     import time
 
