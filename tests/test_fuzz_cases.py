@@ -33,6 +33,8 @@ DEMOS = FUZZ.demo_cases()
 #: Cases per normal run: 150 took 13 s of calls on the unfixed code without its hangs (most cases are
 #: refused at load in milliseconds); the whole test stays under a minute on two shared cores.
 EXAMPLES = 250
+#: The test allows twice the fuzzer's budgets (validate 10 s, run 20 s): the suite shares the cores.
+BUDGET_SCALE = 2.0
 
 
 def _describe(data, records, notes):
@@ -55,7 +57,7 @@ def warmed_up():
 def test_generated_cases_keep_the_command_line_contract(warmed_up, rng):
     data, calls, notes = FUZZ.generate_case(rng, DEMOS, verbs=("validate", "run"))
     with tempfile.TemporaryDirectory(prefix="tubesim-fuzz-", dir=FUZZ.scratch_root()) as work:
-        records = FUZZ.run_case(data, calls, work)
+        records = FUZZ.run_case(data, calls, work, budget_scale=BUDGET_SCALE)
     assert not any(rec["problems"] for rec in records), _describe(data, records, notes)
 
 
