@@ -908,7 +908,7 @@ def violation_class(kind, verb, detail):
         return f"{kind} ({verb})"
     match = re.search(r"\[([^\]]*)\]$", detail)
     frames = [f for f in match.group(1).split(" <- ") if not f.startswith("~")] if match else []
-    where = re.sub(r":\d+ ", " ", frames[0]) if frames else "?"
+    where = re.sub(r":(\d+|None) ", " ", frames[0]) if frames else "?"
     what = detail.split(":", 1)[0] if kind == "uncaught-exception" else "hang"
     return f"{kind} ({verb}): {what} in {where}"
 
