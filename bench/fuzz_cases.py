@@ -1122,9 +1122,8 @@ def main(argv=None):
                                   "data": data}
                 if keep:
                     (keep / f"case{index:05d}.toml").write_bytes(data)
-                    (keep / f"case{index:05d}.txt").write_text(
-                        f"{kind} ({rec['verb']}): {detail}\nargv: {rec['argv']}\nmutations: {notes}\n",
-                        encoding="utf-8")
+                    with (keep / f"case{index:05d}.txt").open("a", encoding="utf-8") as note:
+                        note.write(f"{kind} ({rec['verb']}): {detail}\nargv: {rec['argv']}\nmutations: {notes}\n")
         cases_with_violation += bad
         done[0] += 1
         if done[0] % 250 == 0 or done[0] == args.cases:
