@@ -14,8 +14,8 @@ in-process in a pool of worker processes, and checks the command-line contract:
   ``summary.json`` with conversion in [0, 1], T > 0 and P > 0 (outlet, hot spot and every
   ``profile.csv`` row), mole fractions summing to 1 within 1e-9, no negative flow beyond
   round-off, and element and energy closure within the limits the tool declares
-  (``simulator.solve.checks.CLOSURE_LIMITS``, loosened to 1000 x rtol for a case that asks
-  for a looser tolerance).
+  (``simulator.solve.checks.CLOSURE_LIMITS``, loosened to 1000 x rtol and 10 x atol_scale for
+  a case that asks for looser tolerances).
 
 Usage::
 
@@ -770,10 +770,11 @@ def _summary_problems(summary, profile):
     for key, where in (("temperature_K", outlet), ("pressure_Pa", outlet)):
         if where.get(key) is None:
             problems.append(("missing-outlet-value", f"outlet.{key} is null in a completed run"))
-    rtol = ((summary.get("solver") or {}).get("rtol")) or 0.0
+    solver = summary.get("solver") or {}
+    rtol, atol_scale = solver.get("rtol") or 0.0, solver.get("atol_scale") or 0.0
     for key, limit in _closure_limits().items():
         value = (summary.get("closure") or {}).get(key)
-        allowed = max(limit, 1e3 * rtol)
+        allowed = max(limit, 1e3 * rtol, 10 * atol_scale)     # a case may ask for looser tolerances
         if value is None:
             problems.append(("closure-missing", f"closure.{key} is null"))
         elif value > allowed:

@@ -90,6 +90,8 @@ def _write_summary(out, **changes):
     ({"outlet__mole_fractions": {"A": 0.25, "B": 0.76}}, "mole-fractions-not-summing-to-1"),
     ({"outlet__molar_flows_mol_per_s": {"A": -0.5, "B": 3.0}}, "negative-flow"),
     ({"closure__energy_relative": 0.58}, "closure-above-limit"),
+    ({"closure__energy_relative": 2.5e-5}, "closure-above-limit"),
+    ({"closure__energy_relative": 2.5e-5, "solver__atol_scale": 1e-3}, None),   # the case asked for it
     ({"status": "failed"}, "exit-0-but-not-completed"),
 ])
 def test_contract_checks_flag_each_kind_of_violation(tmp_path, changes, kind):
