@@ -1,7 +1,8 @@
 """Property-based fuzzing of the command line over generated and mutated case files.
 
-The generator and the contract checks live in ``bench/fuzz_cases.py`` (the long fuzzing run over
-10 000 and more cases, see ``bench/README.md``); here a few hundred seeded cases go through
+The generator lives in ``bench/fuzz_mutations.py`` and the contract checks in ``bench/fuzz_cases.py``
+(the long fuzzing run over 10 000 and more cases, see ``bench/README.md``); here a few hundred seeded
+cases go through
 ``validate`` and ``run`` in-process, each with a time budget. Kind of check: invariant (the
 command-line contract of the README: exit codes 0/1/2, one-line errors and no traceback, exit 2
 writes nothing, exit 0 writes finite JSON with conversion in [0, 1], T > 0, P > 0, mole fractions
@@ -28,7 +29,8 @@ def _load_fuzzer():
 
 
 FUZZ = _load_fuzzer()
-DEMOS = FUZZ.demo_cases()
+GENERATOR = FUZZ.fuzz_mutations
+DEMOS = GENERATOR.demo_cases()
 
 #: Cases per normal run: 150 took 13 s of calls on the unfixed code without its hangs (most cases are
 #: refused at load in milliseconds); the whole test stays under a minute on two shared cores.
@@ -55,7 +57,7 @@ def warmed_up():
           suppress_health_check=(HealthCheck.too_slow, HealthCheck.data_too_large))
 @given(rng=st.randoms(use_true_random=False))
 def test_generated_cases_keep_the_command_line_contract(warmed_up, rng):
-    data, calls, notes = FUZZ.generate_case(rng, DEMOS, verbs=("validate", "run"))
+    data, calls, notes = GENERATOR.generate_case(rng, DEMOS, verbs=("validate", "run"))
     with tempfile.TemporaryDirectory(prefix="tubesim-fuzz-", dir=FUZZ.scratch_root()) as work:
         records = FUZZ.run_case(data, calls, work, budget_scale=BUDGET_SCALE)
     assert not any(rec["problems"] for rec in records), _describe(data, records, notes)
@@ -64,7 +66,7 @@ def test_generated_cases_keep_the_command_line_contract(warmed_up, rng):
 @pytest.mark.parametrize("name", [name for name, _ in DEMOS])
 def test_toml_writer_reproduces_every_demo_case(name):
     raw = dict(DEMOS)[name]
-    assert tomllib.loads(FUZZ.toml_dumps(raw)) == raw
+    assert tomllib.loads(GENERATOR.toml_dumps(raw)) == raw
 
 
 def _write_summary(out, **changes):
