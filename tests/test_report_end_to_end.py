@@ -131,7 +131,13 @@ def test_design_numbers_and_verdicts_in_words(reports, name):
     numbers = _design_numbers(document)
     key = case.design.key_species
     assert f"Outlet conversion of {key}" in numbers
-    assert any(label.startswith(("Hot spot: temperature", "Highest temperature")) for label in numbers)
+    if case.heat.mode == "isothermal":          # no hot spot, position or rise for a tube held at one T
+        assert "Gas temperature (isothermal by construction)" in numbers
+        assert not any(label.startswith(("Hot spot", "Highest temperature")) for label in numbers)
+    else:
+        assert any(label.startswith(("Hot spot: temperature", "Highest temperature")) for label in numbers)
+    if case.pressure_drop.model == "none":
+        assert numbers['Pressure drop (pressure_drop.model = "none")'][0] == "not modelled"
     assert any(label.startswith("Pressure drop") for label in numbers)
     assert any(label.startswith("Adiabatic temperature rise") for label in numbers)
     if case.design.target_conversion == case.design.target_conversion:      # a target is given
@@ -163,6 +169,10 @@ def test_hot_spot_equals_summary_json(reports, name, tmp_path, capsys):
     capsys.readouterr()
     summary = json.loads((tmp_path / "summary.json").read_text())
     numbers = _design_numbers(reports[name][0])
+    if load_case(ROOT / "cases" / name).heat.mode == "isothermal":
+        value, unit = numbers["Gas temperature (isothermal by construction)"]
+        assert unit == "K" and float(value) == pytest.approx(summary["outlet"]["temperature_K"], abs=0.05)
+        return
     label = "Hot spot: temperature" if "Hot spot: temperature" in numbers else "Highest temperature"
     value, unit = numbers[label]
     assert unit == "K"

@@ -81,6 +81,7 @@ def check_levels_agree(case, screening):
     assert shown["Van Welsenaere-Froment (1970) I, maxima curve"] == vwf["level"]
     assert shown["Semenov (1928), no consumption"] == data["criteria"]["semenov"]["level"]
     assert shown["Adler-Enig (1964)"] == data["criteria"]["adler_enig"]["level"]
+    assert shown["Barkelew (1959), envelope"] == data["criteria"]["barkelew"]["level"]
     margin_rows = _table(block, "Critical values and margins")["rows"]
     assert [row[-1]["level"] for row in margin_rows] == [e["level"] for e in data["critical"].values()]
 

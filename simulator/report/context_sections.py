@@ -251,6 +251,10 @@ def _criteria_table(case, screening):
         e = c["semenov"]
         spec.append(("Semenov (1928), no consumption", "Semenov number ψ = B/N",
                      fmt(e.get("critical"), 4), fmt(e.get("value"), 4), _DASH, e))
+    if "barkelew" in c:
+        e = c["barkelew"]
+        spec.append(("Barkelew (1959), envelope", "cooling-to-reaction ratio N/S", fmt(e.get("critical"), 4),
+                     fmt(e.get("value"), 4), critical_fraction(e), e))
     vwf = c.get("van_welsenaere_froment")
     if vwf:
         spec.append(("Van Welsenaere-Froment (1970) I, maxima curve", "hot-spot temperature [K]",

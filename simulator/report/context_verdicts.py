@@ -252,12 +252,19 @@ def _summary(case, result, assumptions, screening, screening_reason):
         numbers.append({"label": "Length, volume and catalyst mass to a target",
                         "value": "no target given", "unit": ""})
     name = "Hot spot" if _exothermic(result) else "Highest temperature"
-    numbers += [
-        {"label": f"{name}: temperature" if _exothermic(result) else name, "value": fixed(hot["temperature_K"]),
-         "unit": "K"},
-        {"label": f"{name}: position", "value": fmt(hot["position_m"], 3), "unit": "m"},
-    ]
-    if hot.get("rise_above_medium_K") is not None:
+    if case.heat.mode == "isothermal":
+        # held at the feed temperature by construction: no hot spot, no position, no rise to report
+        numbers.append({"label": "Gas temperature (isothermal by construction)",
+                        "value": fixed(case.feed.temperature), "unit": "K"})
+    else:
+        numbers += [
+            {"label": f"{name}: temperature" if _exothermic(result) else name, "value": fixed(hot["temperature_K"]),
+             "unit": "K"},
+            {"label": f"{name}: position", "value": fmt(hot["position_m"], 3), "unit": "m"},
+        ]
+    if case.heat.mode == "isothermal":
+        pass
+    elif hot.get("rise_above_medium_K") is not None:
         rise_m = hot["rise_above_medium_K"]
         # a heated tube stays below its medium: say so instead of a negative rise "above" it
         numbers.append({"label": f"{name}: {'above' if rise_m >= 0 else 'below'} the medium",
@@ -266,22 +273,23 @@ def _summary(case, result, assumptions, screening, screening_reason):
         numbers.append({"label": f"{name}: above the feed", "value": fixed(hot["rise_above_feed_K"], sign=True),
                         "unit": "K"})
     dp = outlet["pressure_drop_Pa"]
-    label = "Pressure drop" if case.pressure_drop.model != "none" else \
-        "Pressure drop (not modelled: pressure_drop.model = \"none\")"
-    numbers.append({"label": label, "value": fmt(dp / 1e3, 4) if dp is not None else "not computed",
-                    "unit": "kPa" if dp is not None else ""})
-    numbers.append({"label": "Pressure drop / feed pressure",
-                    "value": fixed(100.0 * dp / case.feed.pressure, 2) if dp is not None else "not computed",
-                    "unit": "%" if dp is not None else ""})
+    if case.pressure_drop.model == "none":
+        numbers.append({"label": "Pressure drop (pressure_drop.model = \"none\")", "value": "not modelled",
+                        "unit": ""})
+    else:
+        numbers.append({"label": "Pressure drop", "value": fmt(dp / 1e3, 4) if dp is not None else "not computed",
+                        "unit": "kPa" if dp is not None else ""})
+        numbers.append({"label": "Pressure drop / feed pressure",
+                        "value": fixed(100.0 * dp / case.feed.pressure, 2) if dp is not None else "not computed",
+                        "unit": "%" if dp is not None else ""})
     rise = s["adiabatic_temperature_rise_K"]
     if rise is not None:
         numbers.append({"label": f"Adiabatic temperature rise (complete conversion of {key})",
                         "value": fixed(rise, sign=True), "unit": "K"})
     else:
         note = (s.get("adiabatic") or {}).get("note") or "not defined"
-        numbers.append({"label": f"Adiabatic temperature rise (complete conversion of {key})",
+        numbers.append({"label": f"Adiabatic temperature rise (complete conversion of {key}) — not defined: {note}",
                         "value": "not defined", "unit": ""})
-        numbers[-1]["label"] += f": {note}"
     numbers.append({"label": "Outlet temperature", "value": fixed(outlet["temperature_K"]), "unit": "K"})
     if case.heat.exchange or case.heat.mode == "isothermal":
         Q = outlet["heat_duty_W"]
