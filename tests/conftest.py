@@ -43,3 +43,37 @@ def write_case(tmp_path):
         return path
 
     return _write
+
+
+#: Debian packages for what pip cannot bring: the PDF renderer's pango, the page rasteriser.
+PANGO_APT = "apt-get install libpango-1.0-0 libpangoft2-1.0-0"
+POPPLER_APT = "apt-get install poppler-utils"
+
+
+def pdf_renderer_available():
+    """True when weasyprint loads with its system libraries (pango)."""
+    try:
+        import weasyprint  # noqa: F401
+    except OSError:
+        return False
+    return True
+
+
+def require_pdf_renderer():
+    """Skip the calling test when weasyprint cannot load its system libraries (pango), naming the fix.
+
+    ``.ci/run`` installs them, so CI runs every PDF test; a developer machine without them gets a
+    skip with the apt line instead of an error.
+    """
+    try:
+        import weasyprint  # noqa: F401
+    except OSError as err:                   # the wheel installs, the shared library is missing
+        pytest.skip(f"PDF rendering needs the pango library ({err.__class__.__name__}: {str(err)[:80]}); {PANGO_APT}")
+
+
+def require_pdftoppm():
+    """Skip the calling test when poppler's pdftoppm is not installed, naming the fix."""
+    import shutil
+
+    if shutil.which("pdftoppm") is None:
+        pytest.skip(f"pdftoppm (poppler-utils) is not installed; {POPPLER_APT}")

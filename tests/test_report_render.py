@@ -11,7 +11,6 @@ import copy
 import functools
 import io
 import re
-import shutil
 import subprocess
 import warnings
 import xml.etree.ElementTree as ET
@@ -19,6 +18,7 @@ import xml.etree.ElementTree as ET
 import numpy as np
 import pytest
 
+from conftest import require_pdf_renderer, require_pdftoppm
 from simulator.errors import ReportError
 from simulator.report import html as report_html
 from simulator.report import pdf as report_pdf
@@ -211,6 +211,7 @@ def context():
 
 @pytest.fixture(scope="module")
 def rendered(context):
+    require_pdf_renderer()
     html = report_html.render_html(context)
     fetcher = report_pdf.data_only_fetcher()
     pdf = report_pdf.render_pdf(html, fetcher=fetcher)
@@ -219,6 +220,7 @@ def rendered(context):
 
 @pytest.fixture(scope="module")
 def hostile_rendered():
+    require_pdf_renderer()
     context = build_context(title=HOSTILE, text=HOSTILE)
     html = report_html.render_html(context)
     fetcher = report_pdf.data_only_fetcher()
@@ -364,6 +366,7 @@ def test_hostile_context_pdf_fetches_and_embeds_nothing(hostile_rendered):
     '<style>@import url("{url}");</style>',
 ])
 def test_fetcher_refuses_local_files(tmp_path, construct):
+    require_pdf_renderer()
     secret = tmp_path / "secret.txt"
     secret.write_text("do-not-embed-me")
     html = f"<html><body><p>x</p>{construct.format(url=secret.as_uri())}</body></html>"
@@ -374,6 +377,7 @@ def test_fetcher_refuses_local_files(tmp_path, construct):
 
 
 def test_render_pdf_accepts_only_the_data_only_fetcher():
+    require_pdf_renderer()
     from weasyprint.urls import URLFetcher
 
     with pytest.raises(ReportError, match=r"fetcher = URLFetcher: refused"):
@@ -393,8 +397,7 @@ def test_missing_pango_is_one_clear_line(monkeypatch):
 
 
 def test_pdftoppm_renders_every_page(rendered, tmp_path):
-    if shutil.which("pdftoppm") is None:
-        pytest.skip("pdftoppm (poppler-utils) not installed")
+    require_pdftoppm()
     pdf = rendered[1]
     (tmp_path / "report.pdf").write_bytes(pdf)
     command = ["pdftoppm", "-r", "30", "-png", str(tmp_path / "report.pdf"), str(tmp_path / "page")]
