@@ -347,3 +347,15 @@ def test_a_temperature_that_is_not_positive_fails_the_run(cases_dir):
     z, y, status, why = I._negative_flow_check(model, zs, ys, model.scale * 1e-10, "completed", "end")
     assert status == "failed" and "temperature not positive at z = 0.666667 m" in why
     assert len(z) == 2
+
+
+def test_a_solver_failure_in_the_continuation_ends_the_run(tmp_path):
+    """Found by fuzzing: the heated dehydrogenation demo with a negative activation energy
+    (-50 kJ/mol) made ODEPACK fail with repeated convergence failures inside the budgeted
+    continuation; such a failure spends no counted steps, so the continuation retried the same
+    chunk without end (158 604 odeint calls in 25 s). It must end as a failed run, in a few calls."""
+    case = _variant(tmp_path, "dehydrogenation_heated_tube.toml", [], regex=[
+        (r'activation_energy = "[^"]*"', 'activation_energy = "-50 kJ/mol"')])
+    result = simulate(case)
+    assert result.status == "failed"
+    assert result.solver_stats["integrator_calls"] < 1_000

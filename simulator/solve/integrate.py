@@ -206,7 +206,9 @@ def _integrate_budgeted(tube, y0, zs):
         if part["message"] == SUCCESS:
             continue
         if c > 1:                     # retry from the point reached, with what is left (smaller c)
-            single = single or part["message"].startswith(BALANCE_ERROR)
+            # a failure that is not the step limit (e.g. repeated error-test failures) spends no
+            # counted steps: retry one interval at a time, so the next failure ends the run
+            single = single or "Excess work done" not in part["message"]
             continue
         message = part["message"]
         tcur.append(float(np.max(part["tcur"])) if len(part["tcur"]) else zs[k])
@@ -345,10 +347,12 @@ def _resolve_fast_intervals(tube, zs, ys, dTdz, info, n):
                        atol=tube.atol)
         points, states, budget = [], [], tube.remaining()
         try:
-            while solver.status == "running" and len(points) < budget:
-                solver.step()
-                points.append(solver.t)
-                states.append(solver.y.copy())
+            with warnings.catch_warnings():     # a failed step sets the solver's status, checked below
+                warnings.simplefilter("ignore", UserWarning)
+                while solver.status == "running" and len(points) < budget:
+                    solver.step()
+                    points.append(solver.t)
+                    states.append(solver.y.copy())
         except ARITHMETIC_ERRORS:       # the balances failed inside this interval: keep what was reached
             solver.status = "failed"
         tube.post_budget -= len(points)
