@@ -182,3 +182,53 @@ def test_autothermal_tube_has_three_steady_states_with_exact_identities(write_ca
     assert middle[0]["medium_outlet_temperature_K"] == pytest.approx(337.90, abs=0.01)
     assert low[0]["outlet_conversion"] == pytest.approx(0.0022, abs=1e-4)
     assert middle[0]["outlet_conversion"] == pytest.approx(0.0858, abs=1e-4)
+
+
+def test_outputs_describe_the_lowest_branch_and_warn_of_the_others(write_case, monkeypatch):
+    # the autothermal states through simulate(): the summary lists all three, marks the lowest
+    # (start-up from a cold medium) and the run carries a warning naming the others
+    from simulator.solve import counter_current as cc
+
+    case = _autothermal_case(write_case)
+    found = steady_states(case, _simulate, autothermal=True)
+    monkeypatch.setattr(cc, "steady_states", lambda *a, **k: found)
+    result = simulate(case)
+    summary = result.summary()
+    marked = [e["describes_outputs"] for e in summary["steady_states"]]
+    assert marked == [True, False, False]
+    assert summary["outlet"]["temperature_K"] == pytest.approx(summary["steady_states"][0]["outlet_temperature_K"])
+    assert any(w.startswith("3 steady states found") for w in summary["warnings"])
+
+
+def test_no_steady_state_found_is_a_failed_run(write_case, monkeypatch):
+    # a scan range that holds no root (forced here) must give a failed run with the reason, no profile
+    from simulator.solve import counter_current as cc
+
+    monkeypatch.setattr(cc, "scan_range", lambda *a, **k: (600.0, 700.0))
+    result = simulate(load_case(write_case(_case(U=U_NTU1))))
+    summary = result.summary()
+    assert result.status == "failed"
+    assert result.termination.startswith("no steady state found")
+    assert summary["outlet"]["temperature_K"] is None and summary["steady_states"] == []
+    assert len(result.z) == 1
+
+
+def test_collocation_polish_keeps_the_root_it_starts_from(write_case, monkeypatch):
+    # where marching is unstable the root is polished by solve_bvp from the marched profile; forced
+    # here on a well-behaved exchanger, the polished root must be the marched one (to the solver's tolerance)
+    from simulator.solve import counter_current as cc
+
+    case = load_case(write_case(_case(U=U_NTU1)))
+    marched = steady_states(case, _simulate)[0][0][0]
+    monkeypatch.setattr(cc, "UNSTABLE_SLOPE", 0.0)
+    polished = steady_states(case, _simulate)[0][0][0]
+    assert polished["solved_by"].startswith("polished by collocation")
+    assert polished["medium_outlet_temperature_K"] == pytest.approx(marched["medium_outlet_temperature_K"], abs=1e-4)
+
+
+def test_counter_current_needs_mass_flow_and_cp(write_case):
+    from simulator.errors import CaseError
+
+    text = _case(U=U_NTU1).replace('mass_flow = "0.05 kg/s"\n', "")
+    with pytest.raises(CaseError, match=r"heat\.medium.*mass_flow"):
+        load_case(write_case(text))
