@@ -232,3 +232,14 @@ def test_counter_current_needs_mass_flow_and_cp(write_case):
     text = _case(U=U_NTU1).replace('mass_flow = "0.05 kg/s"\n', "")
     with pytest.raises(CaseError, match=r"heat\.medium.*mass_flow"):
         load_case(write_case(text))
+
+
+def test_compiled_batch_path_refuses_a_counter_current_case(write_case):
+    # the compiled batch integrator marches an initial-value problem: it would silently run the
+    # counter-current medium as if it entered at z = 0; sweeps and screening must take the
+    # per-case path (simulate, shooting) instead
+    from simulator.sweeps import fast
+
+    model = build_model(load_case(write_case(_case(U=U_NTU1))))
+    assert not fast.supports(["heat.medium.temperature"], model)
+    assert "counter-current" in fast.unsupported_reason(["heat.medium.temperature"], model)
