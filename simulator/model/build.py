@@ -151,7 +151,9 @@ def build_model(case, species=None, constant_moles=False):
                    1 if constant_moles else 0], dtype=np.int64)
     # the medium at z = 0; a counter-current medium's is the unknown of the shooting method
     # (simulator.solve.counter_current sets it), its inlet temperature at z = L stands in here
-    Tc0 = heat.medium_temperature if heat.exchange else case.feed.temperature
+    Tc0 = exchange.medium_at_inlet(heat)
+    if math.isnan(Tc0):
+        Tc0 = heat.medium_temperature if heat.exchange else case.feed.temperature
     y0 = np.concatenate([F0, [case.feed.temperature, case.feed.pressure, Tc0, 0.0]])
     Ft0 = F0.sum()
     cp_scale = Ft0 * 30.0 * max(case.feed.temperature, 300.0)
