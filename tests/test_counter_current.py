@@ -243,3 +243,15 @@ def test_compiled_batch_path_refuses_a_counter_current_case(write_case):
     model = build_model(load_case(write_case(_case(U=U_NTU1))))
     assert not fast.supports(["heat.medium.temperature"], model)
     assert "counter-current" in fast.unsupported_reason(["heat.medium.temperature"], model)
+
+
+def test_python_twin_finds_the_same_steady_state(write_case, monkeypatch):
+    # the shooting marches with the kernel a single run uses; the pure-Python twin (cold cache) must
+    # give the compiled kernel's steady state
+    case = load_case(write_case(_case(U=U_NTU1)))
+    compiled = simulate(case).summary()["steady_states"][0]
+    monkeypatch.setenv("TUBESIM_KERNEL", "python")
+    twin = simulate(case)
+    assert twin.solver_stats["kernel"].startswith("plain Python")
+    assert twin.summary()["steady_states"][0]["medium_outlet_temperature_K"] == pytest.approx(
+        compiled["medium_outlet_temperature_K"], abs=1e-7)

@@ -184,7 +184,8 @@ def find_roots(shooting, bounds, points=SCAN_POINTS):
     """Every root of the shooting residual over ``bounds``: (roots, scan) with roots a list of dicts.
 
     Each root: ``s`` [K], ``slope`` dR/ds at it [-] (from its bracket), ``bracket`` (a, b) [K].
-    ``scan`` holds the scanned ``s`` and ``residual`` arrays and ``failed`` (values whose march failed).
+    ``scan`` holds the scanned ``s`` and ``residual`` arrays, ``failed`` (values whose march failed)
+    and ``unresolved`` (brackets whose refinement met a failed march: not reported as roots).
     """
     s = np.linspace(bounds[0], bounds[1], points)
     r = np.array([shooting.residual(v) for v in s])
@@ -198,17 +199,21 @@ def find_roots(shooting, bounds, points=SCAN_POINTS):
         elif ra * rb < 0.0:
             brackets.append((a, b, ra, rb))
     brackets += _hidden_pairs(shooting, s, r)
-    roots = []
+    roots, unresolved = [], []
     for a, b, ra, rb in sorted(brackets):
         if a == b:
             root, slope = a, _slope(shooting, a, bounds)
         else:
-            root = brentq(_finite(shooting.residual), a, b, xtol=1e-9 * max(abs(a), 1.0), rtol=1e-12)
+            try:
+                root = brentq(_finite(shooting.residual), a, b, xtol=1e-9 * max(abs(a), 1.0), rtol=1e-12)
+            except ArithmeticError as err:
+                unresolved.append(f"a sign change between {a:.6g} and {b:.6g} K was not refined: {err}")
+                continue
             slope = (rb - ra) / (b - a)
         if roots and abs(root - roots[-1]["s"]) <= 1e-7 * max(abs(root), 1.0):
             continue
         roots.append({"s": float(root), "slope": float(slope), "bracket": (float(a), float(b))})
-    return roots, {"s": s, "residual": r, "failed": int(np.sum(~np.isfinite(r)))}
+    return roots, {"s": s, "residual": r, "failed": int(np.sum(~np.isfinite(r))), "unresolved": unresolved}
 
 
 def _finite(f):
@@ -298,10 +303,10 @@ def polish(shooting, s, nodes=200):
 
 
 def shooting_problem(case, model=None, length=None, autothermal=False):
-    """The :class:`Shooting` problem of a counter-current case (compiled kernel unless the python twin is asked)."""
+    """The :class:`Shooting` problem of a counter-current case (the kernel a single run would use)."""
     model = model or build_model(case)
     L = case.tube.length if length is None else length
-    kernel = kernels.python_twin() if kernels.mode() == "python" else kernels.compiled
+    kernel = kernels.for_run()
     target = case.feed.temperature if autothermal else case.heat.medium_temperature
     return Shooting(model=model, length=L, target=target, autothermal=autothermal, kernel=kernel,
                     rtol=case.solver.rtol, atol=model.scale * case.solver.atol_scale, hmax=case.solver.max_step)
@@ -362,7 +367,7 @@ def steady_states(case, run, model=None, length=None, autothermal=False, points=
         notes.append(note)
         states.append((entry, result))
     return states, {"bounds_K": [float(bounds[0]), float(bounds[1])], "points": points,
-                    "failed_marches": scan["failed"], "collocation": [x for x in notes if x.startswith(("polished",
+                    "failed_marches": scan["failed"], "unresolved_brackets": scan["unresolved"], "collocation": [x for x in notes if x.startswith(("polished",
                                                                                                        "collocation"))]}
 
 
@@ -400,6 +405,17 @@ def simulate_counter_current(case, run, model=None, length=None):
     entries[k]["describes_outputs"] = True
     result = states[k][1]
     notes = list(result.warnings)
+    if scan["failed_marches"] or scan["unresolved_brackets"]:
+        notes.insert(0, f"the counter-current scan could not integrate {scan['failed_marches']} of its "
+                        f"{scan['points']} medium outlet temperatures" + "".join(
+                            f"; {u}" for u in scan["unresolved_brackets"])
+                     + ": a steady state there may be missing from steady_states")
+    reached = entries[k]["medium_inlet_temperature_K"]
+    if reached is not None and abs(reached - Tin) > MARCHING_TOLERANCE:
+        notes.insert(0, f"the profile of the counter-current steady state reaches the medium inlet (z = L) at "
+                        f"{reached:.6g} K instead of the given {Tin:.6g} K: marching from z = 0 amplifies the "
+                        f"integration error here ({entries[k]['solved_by']}); the profile is approximate by "
+                        "that much")
     if len(entries) > 1:
         others = "; ".join(f"Tc(0) = {e['medium_outlet_temperature_K']:.6g} K, hot spot "
                            + (f"{e['hot_spot_temperature_K']:.6g} K" if e["hot_spot_temperature_K"] is not None
