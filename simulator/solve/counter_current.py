@@ -302,6 +302,38 @@ def polish(shooting, s, nodes=200):
     return s_new, f"polished by collocation (solve_bvp): Tc(0) {s:.6g} K -> {s_new:.6g} K"
 
 
+def marching_instability(model, length=None):
+    r"""How fast marching from z = 0 amplifies an error in the medium temperature, as a dict.
+
+    Parameters
+    ----------
+    model : simulator.model.build.Model
+        Packed model of one tube.
+    length : float, optional
+        Tube length, [m]; the case's by default.
+
+    Returns
+    -------
+    info : dict
+        ``ntu_gas`` = U pi D L / C_g, ``ntu_medium`` = U pi D L / C_m and ``growth_exponent``
+        = |NTU_medium - NTU_gas|, [-]
+
+    Notes
+    -----
+    Without reaction, d(T - Tc)/dz = -(UπD/C_g - UπD/C_m)(T - Tc) for a counter-current medium,
+    so a disturbance of T - Tc at z = 0 grows (or decays) by exp(NTU_m - NTU_g) along the
+    tube; above about 30 (e^30 ~ 1e13) a march in double precision cannot hit the far boundary
+    condition, and the reaction only adds to that. A large NTU with balanced capacity rates
+    also makes the residual steep: Tc(0) must then be known to within about the inlet
+    temperature difference / NTU.
+    """
+    fp = model.args[1]
+    L = model.case.tube.length if length is None else length
+    UA = fp[K.F_U] * math.pi * fp[K.F_DIAM] * L
+    ntu_g, ntu_m = UA / gas_capacity_rate(model), UA / abs(fp[K.F_MCP])
+    return {"ntu_gas": ntu_g, "ntu_medium": ntu_m, "growth_exponent": abs(ntu_m - ntu_g)}
+
+
 def shooting_problem(case, model=None, length=None, autothermal=False):
     """The :class:`Shooting` problem of a counter-current case (the kernel a single run would use)."""
     model = model or build_model(case)
@@ -394,6 +426,14 @@ def simulate_counter_current(case, run, model=None, length=None):
         why = (f"no steady state found: the shooting residual Tc(L) - {Tin:.6g} K did not change sign for a "
                f"medium outlet temperature between {scan['bounds_K'][0]:.6g} and {scan['bounds_K'][1]:.6g} K "
                f"({scan['points']} values, {scan['failed_marches']} of them could not be integrated)")
+        instability = marching_instability(build_model(case) if model is None else model, length)
+        if scan["failed_marches"]:
+            why += (f": the marches from z = 0 left the range of physical temperatures (NTU of the gas "
+                    f"{instability['ntu_gas']:.3g}, of the medium {instability['ntu_medium']:.3g}; an error in the "
+                    f"medium outlet temperature grows about e^{instability['growth_exponent']:.3g} along the tube "
+                    "without reaction): one march from z = 0 cannot hit the far boundary condition, and multiple "
+                    "shooting is not implemented yet; check U and the medium flow, or treat the medium as uniform "
+                    "if its temperature change is small")
         if states:
             why = (f"no usable steady state: {len(states)} found, every full run failed "
                    f"({states[0][1].termination})")
