@@ -255,3 +255,21 @@ def test_python_twin_finds_the_same_steady_state(write_case, monkeypatch):
     assert twin.solver_stats["kernel"].startswith("plain Python")
     assert twin.summary()["steady_states"][0]["medium_outlet_temperature_K"] == pytest.approx(
         compiled["medium_outlet_temperature_K"], abs=1e-7)
+
+
+def test_scan_whose_marches_fail_is_a_failed_run_that_says_why(write_case):
+    # a strongly cooled packed tube (NTU of the gas ~50) with a small counter-current medium flow: the
+    # marches from z = 0 leave the physical temperatures before z = L, so no steady state is found by
+    # single shooting; the run must fail and say so (not return an initial-value profile)
+    from pathlib import Path
+
+    demo = (Path(__file__).resolve().parents[1] / "cases" / "hydrogenation_cooled_packed_bed.toml").read_text()
+    text = demo.replace('arrangement = "uniform"\ntemperature = "420 K"',
+                        'arrangement = "counter-current"\ntemperature = "400 K"\nmass_flow = "0.5 kg/s"\n'
+                        'cp = "2.2 kJ/(kg*K)"')
+    assert "counter-current" in text
+    result = simulate(load_case(write_case(text, name="hcc.toml")))
+    assert result.status == "failed"
+    assert "no steady state found" in result.termination
+    assert "left the range of physical temperatures" in result.termination
+    assert result.summary()["outlet"]["temperature_K"] is None

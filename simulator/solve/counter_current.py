@@ -64,7 +64,8 @@ RANGE_MARGIN = 0.25
 UNSTABLE_SLOPE = 1e4
 #: medium inlet temperature error a marched profile may carry before it is polished, [K]
 MARCHING_TOLERANCE = 1e-3
-STEP_BUDGET = 50_000
+#: solver steps one march of the scan may take (a march that needs more has left the physical states), [-]
+STEP_BUDGET = 5_000
 
 
 @dataclasses.dataclass(frozen=True)
