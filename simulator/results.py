@@ -113,6 +113,7 @@ class Result:
                 "closure": {"elements_relative": None, "energy_relative": None},
                 "max_compressibility_deviation": None, "events": self.events, "warnings": list(self.warnings),
                 "solver": self.solver_stats, "references": list(self.references), "versions": self.versions,
+                **self._steady_states_block(),
             }
         return {
             "title": self.case.title,
@@ -134,7 +135,15 @@ class Result:
             "solver": self.solver_stats,
             "references": list(self.references),
             "versions": self.versions,
+            **self._steady_states_block(),
         }
+
+    def _steady_states_block(self):
+        """``steady_states`` (counter-current medium only): every steady state found, see
+        :mod:`simulator.solve.counter_current`; absent for initial-value arrangements."""
+        if "steady_states" not in self.extra:
+            return {}
+        return {"steady_states": [dict(e) for e in self.extra["steady_states"]]}
 
     def _adiabatic_block(self):
         info = self.extra.get("adiabatic", {})

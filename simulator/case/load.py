@@ -47,7 +47,7 @@ KEYS = {
     "uncertainty.*": {"parameter", "distribution", "std", "factor", "low", "high"},
 }
 HEAT_MODES = ("adiabatic", "isothermal", "exchange")
-ARRANGEMENTS = ("uniform", "co-current")
+ARRANGEMENTS = ("uniform", "co-current", "counter-current")
 RATE_FORMS = ("power-law", "hougen-watson")
 ACTIVITY_BASES = ("concentration", "partial-pressure")
 RATE_BASES = ("reactor-volume", "catalyst-mass")
@@ -585,14 +585,14 @@ def _heat(ck, raw):
         ck.keys(m, KEYS["heat.medium"], "heat.medium")
         arrangement = ck.choice(m, "arrangement", "heat.medium", ARRANGEMENTS, default="uniform") or "uniform"
         Tm = ck.quantity(m, "temperature", "temperature", "heat.medium", minimum=0.0)
-        if arrangement == "co-current":
+        if arrangement in ("co-current", "counter-current"):
             mass_flow = ck.quantity(m, "mass_flow", "mass_flow", "heat.medium", minimum=0.0)
             cp = ck.quantity(m, "cp", "specific_heat_capacity", "heat.medium", minimum=0.0)
         else:
             extra = [k for k in ("mass_flow", "cp") if isinstance(m, dict) and k in m]
             if extra:
                 ck.fail("heat.medium", f": {', '.join(extra)} given but arrangement = \"uniform\" ignores them; "
-                        'remove them or write arrangement = "co-current".')
+                        'remove them or write arrangement = "co-current" or "counter-current".')
     elif mode in ("isothermal", "adiabatic"):
         extra = [k for k in ("overall_coefficient", "medium") if k in h]
         if extra:

@@ -12,7 +12,7 @@ from typing import Literal
 
 EquationOfState = Literal["ideal-gas", "peng-robinson"]
 HeatMode = Literal["isothermal", "adiabatic", "exchange"]
-MediumArrangement = Literal["", "uniform", "co-current"]
+MediumArrangement = Literal["", "uniform", "co-current", "counter-current"]
 PressureDropModel = Literal["none", "ergun", "pipe-friction"]
 ActivityBasis = Literal["concentration", "partial-pressure"]
 RateBasis = Literal["reactor-volume", "catalyst-mass"]
@@ -111,15 +111,17 @@ class Heat:
     ``mode = "exchange"`` couples the gas to a medium on the other side of the
     wall (cooling or heating); ``arrangement`` says how the medium runs:
     ``"uniform"`` (one temperature everywhere, e.g. a boiling or well-mixed
-    shell) or ``"co-current"`` (enters at z = 0 with ``medium_temperature``).
+    shell), ``"co-current"`` (enters at z = 0 with ``medium_temperature``) or
+    ``"counter-current"`` (enters at z = L with ``medium_temperature``: a two-point
+    boundary-value problem, see :mod:`simulator.solve.counter_current`).
     """
 
     mode: HeatMode
     overall_coefficient: float = 0.0     # U [W/(m^2*K)] referred to the tube inner wall
     arrangement: MediumArrangement = ""  # "" unless mode == "exchange"
-    medium_temperature: float = NAN      # [K] (inlet temperature for co-current)
-    medium_mass_flow: float = NAN        # [kg/s] whole bundle (co-current)
-    medium_cp: float = NAN               # [J/(kg*K)] (co-current)
+    medium_temperature: float = NAN      # [K] (inlet temperature: at z = 0 co-current, z = L counter-current)
+    medium_mass_flow: float = NAN        # [kg/s] whole bundle (co-/counter-current)
+    medium_cp: float = NAN               # [J/(kg*K)] (co-/counter-current)
 
     @property
     def exchange(self):

@@ -13,12 +13,11 @@ import numpy as np
 from simulator.errors import CaseError, ThermoError
 from simulator.model import kernel as K
 from simulator.model.adiabatic import adiabatic_rise
+from simulator.model.heat import arrangement_of
 from simulator.thermo.critical import critical_constants
 from simulator.thermo.species_data import SpeciesData, build_species_data, mixture_viscosity, viscosity_fits
 from simulator.units import R
 
-HEAT_CODES = {("isothermal", ""): K.HEAT_ISOTHERMAL, ("adiabatic", ""): K.HEAT_ADIABATIC,
-              ("exchange", "uniform"): K.HEAT_UNIFORM, ("exchange", "co-current"): K.HEAT_COCURRENT}
 DP_CODES = {"none": K.DP_NONE, "ergun": K.DP_ERGUN, "pipe-friction": K.DP_PIPE}
 FRICTION_CODES = {"churchill-1977": 0, "colebrook-1939": 1, "blasius-1913": 2, "laminar": 3}
 
@@ -128,8 +127,9 @@ def build_model(case, species=None, constant_moles=False):
     fp[K.F_AREA] = area
     fp[K.F_DIAM] = tube.inner_diameter
     fp[K.F_U] = heat.overall_coefficient
+    exchange = arrangement_of(heat)
     fp[K.F_TC] = heat.medium_temperature
-    fp[K.F_MCP] = heat.medium_mass_flow * heat.medium_cp / tube.count if heat.arrangement == "co-current" else 1.0
+    fp[K.F_MCP] = exchange.capacity_rate(heat, tube.count)
     fp[K.F_ROUGH] = tube.roughness
     fp[K.F_G] = G
     fp[K.F_PMIN] = 1e-3 * case.feed.pressure
@@ -146,10 +146,14 @@ def build_model(case, species=None, constant_moles=False):
     if case.pressure_drop.model != "none":
         note = _viscosity_law(case, species, fp, x0)
 
-    ip = np.array([n, m, HEAT_CODES[heat.mode, heat.arrangement], DP_CODES[case.pressure_drop.model],
+    ip = np.array([n, m, exchange.kernel_code, DP_CODES[case.pressure_drop.model],
                    FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax,
                    1 if constant_moles else 0], dtype=np.int64)
-    Tc0 = heat.medium_temperature if heat.exchange else case.feed.temperature
+    # the medium at z = 0; a counter-current medium's is the unknown of the shooting method
+    # (simulator.solve.counter_current sets it), its inlet temperature at z = L stands in here
+    Tc0 = exchange.medium_at_inlet(heat)
+    if math.isnan(Tc0):
+        Tc0 = heat.medium_temperature if heat.exchange else case.feed.temperature
     y0 = np.concatenate([F0, [case.feed.temperature, case.feed.pressure, Tc0, 0.0]])
     Ft0 = F0.sum()
     cp_scale = Ft0 * 30.0 * max(case.feed.temperature, 300.0)

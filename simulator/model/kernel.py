@@ -17,7 +17,11 @@ Balances (z = axial position [m], A_c = pi D^2/4)::
     dF_i/dz = A_c * sum_j nu_ij * r_j * basis_j
     dT/dz   = (U pi D (Tc - T) - sum_i H_i dF_i/dz - dH/dP dP/dz) / (dH/dT)
     dP/dz   = Ergun (packed bed) | -f G^2 / (2 D rho) (empty tube) | 0
-    dTc/dz  = U pi D (T - Tc) / (m_c cp_c / N_tubes)        (co-current only)
+    dTc/dz  = U pi D (T - Tc) / C_m                         (flowing medium only)
+
+where C_m = +m_c cp_c / N_tubes for a medium flowing with the gas (co-current) and
+-m_c cp_c / N_tubes for one flowing against it (counter-current): the kernel only
+sees the signed capacity rate per tube, packed by :mod:`simulator.model.heat`.
     dQ/dz   = U pi D (Tc - T)      (isothermal: the duty that holds T constant)
 
 Here H = sum_i F_i h_i^ig(T) + F_T h^dep(T, P, y) is the enthalpy flow; the
@@ -42,7 +46,7 @@ _laminar = njit(cache=True)(friction_laminar)
 
 # integer parameters ip[...]
 I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN = range(8)
-HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_UNIFORM, HEAT_COCURRENT = range(4)
+HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_UNIFORM, HEAT_FLOWING = range(4)
 DP_NONE, DP_ERGUN, DP_PIPE = range(3)
 EOS_IDEAL, EOS_PR = range(2)
 # float parameters fp[...]
@@ -466,7 +470,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             if v != 0.0:
                 dydz[i] += v * r
     heat = ip[I_HEAT]
-    if heat == HEAT_UNIFORM or heat == HEAT_COCURRENT:
+    if heat == HEAT_UNIFORM or heat == HEAT_FLOWING:
         qw = fp[F_U] * math.pi * fp[F_DIAM] * (Tc - T)
     else:
         qw = 0.0
@@ -526,8 +530,8 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             extra = _dH_dF_dep(F, T, P, nasa, ip, crit, dydz) + _dH_dP(F, T, P, nasa, ip, crit) * dP
         dydz[n] = (qw - hdF - extra) / cpt
         dydz[n + 3] = qw
-    if heat == HEAT_COCURRENT:
-        dydz[n + 2] = -qw / fp[F_MCP]
+    if heat == HEAT_FLOWING:
+        dydz[n + 2] = -qw / fp[F_MCP]   # F_MCP is signed: < 0 for a medium flowing against the gas
     else:
         dydz[n + 2] = 0.0
 

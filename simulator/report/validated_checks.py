@@ -46,6 +46,29 @@ CHECKS = ({'key': 'levenspiel1999',
               'against its mixture-averaged transport',
   'where': 'enthalpy balance at fixed composition (HPX) on the same NASA data',
   'test': 'tests/test_balances.py::test_adiabatic_rise_takes_the_worst_case_over_several_reactions'},
+ {'key': 'kays_london1984',
+  'citation': 'W.M. Kays, A.L. London, Compact Heat Exchangers, 3rd ed., McGraw-Hill, 1984; F.P. Incropera, '
+              'D.P. DeWitt, T.L. Bergman, A.S. Lavine, Fundamentals of Heat and Mass Transfer, 6th ed., '
+              'Wiley, 2007',
+  'compared': 'Gas outlet temperature of a tube without reaction with a counter-current and with a '
+              'co-current medium (NTU = 1, Cr = 0.6) against the effectiveness-NTU closed forms',
+  'where': 'counter-current effectiveness, NTU = 1, Cr = 0.6',
+  'test': 'tests/test_counter_current.py::test_counter_current_exchanger_matches_epsilon_ntu'},
+ {'key': 'kays_london1984',
+  'citation': 'W.M. Kays, A.L. London, Compact Heat Exchangers, 3rd ed., McGraw-Hill, 1984; F.P. Incropera, '
+              'D.P. DeWitt, T.L. Bergman, A.S. Lavine, Fundamentals of Heat and Mass Transfer, 6th ed., '
+              'Wiley, 2007',
+  'compared': 'Gas outlet temperature of a tube without reaction with a counter-current and with a '
+              'co-current medium (NTU = 1, Cr = 0.6) against the effectiveness-NTU closed forms',
+  'where': 'parallel-flow effectiveness, NTU = 1, Cr = 0.6',
+  'test': 'tests/test_counter_current.py::test_co_current_exchanger_matches_epsilon_ntu'},
+ {'key': 'van_heerden1953',
+  'citation': "C. van Heerden, 'Autothermic processes: properties and reactor design', Ind. Eng. Chem. "
+              '45(6), 1242-1247, 1953',
+  'compared': 'Three steady states of an autothermal tube found by the counter-current shooting, with the '
+              'overall adiabatic balance and T - Tc = dT_ad of the ignited state',
+  'where': 'autothermal tube with three steady states (configuration; identities derived)',
+  'test': 'tests/test_counter_current.py::test_autothermal_tube_has_three_steady_states_with_exact_identities'},
  {'key': 'froment1967',
   'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
               '18-27, 1967',

@@ -12,12 +12,18 @@
   integration error in T and Q and any mismatch between the kernel's thermo and
   Cantera's; in an isothermal run Q is the duty the kernel integrated, so the check
   reduces to the flows and the thermo consistency.
+  With a flowing medium (co- or counter-current) the balance is the exchanger's:
+  H_out - H_in + (enthalpy gained by the medium) = 0, the medium's gain
+  C_m (Tc(L) - Tc(0)) signed by its direction (:mod:`simulator.model.heat`), so the
+  integration of the medium temperature is checked too; with a uniform medium (a
+  bath of one temperature) the wall duty Q stands for it.
 """
 import functools
 
 import numpy as np
 
 from simulator.model import kernel as compiled_kernel
+from simulator.model.heat import arrangement_of
 
 
 @functools.lru_cache(maxsize=32)
@@ -68,6 +74,9 @@ def closure(model, ys, K=compiled_kernel):
     H_in = _enthalpy_cantera(model, F_in, T_in, P_in, K)
     H_out = _enthalpy_cantera(model, F_out, T_out, P_out, K)
     Q = ys[-1, n + 3]
+    medium_change = arrangement_of(model.case.heat).medium_enthalpy_change
+    if medium_change is not None:   # the medium's own enthalpy gain instead of the integrated wall heat
+        Q = -medium_change(model.case.heat, model.count, ys[0, n + 2], ys[-1, n + 2])
     H_ref = _enthalpy_cantera(model, F_out, T_in, P_in, K)
     reaction_heat = abs(H_ref - H_in)
     sensible = abs(_enthalpy_cantera(model, F_out, T_out, P_in, K) - H_ref)

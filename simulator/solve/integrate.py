@@ -32,6 +32,7 @@ from simulator.case.plausibility import plausibility_warnings
 from simulator.model import kernel as model_kernel
 from simulator.model import kernels
 from simulator.model.build import build_model
+from simulator.model.heat import arrangement_of
 from simulator.results import Result
 from simulator.units import R as R_GAS
 from simulator.solve.checks import (closure, closure_failure, closure_warnings, compressibility_profile,
@@ -402,8 +403,15 @@ def simulate(case, model=None, length=None):
 
     numpy's floating-point warnings are silenced inside: every non-finite number a run meets is
     checked explicitly and turned into a failed run or a refused case with where and why.
+    A counter-current medium (a two-point boundary-value problem) is solved by shooting around
+    the initial-value run (:mod:`simulator.solve.counter_current`): every steady state is in
+    ``extra["steady_states"]`` and the result describes the one a start-up from a cold medium reaches.
     """
     with np.errstate(all="ignore"):
+        if case.heat.exchange and arrangement_of(case.heat).boundary_value:
+            from simulator.solve.counter_current import simulate_counter_current
+
+            return simulate_counter_current(case, _simulate, model, length)
         return _simulate(case, model, length)
 
 
