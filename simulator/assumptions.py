@@ -28,6 +28,7 @@ import numpy as np
 
 from simulator.model.build import build_model
 from simulator.solve.integrate import simulate
+from simulator.solve.target_length import length_by_resolving, moves_with_length
 from simulator.units import R
 from simulator.verdicts import assumption_level, null_where_not_finite
 
@@ -51,8 +52,12 @@ def _design_quantity(case):
     return ("catalyst_mass_kg", "catalyst mass") if case.bed is not None else ("volume_m3", "volume")
 
 
-def _numbers(result):
+def _numbers(result, model_builder=None):
+    """Design numbers of one solved variant; with a counter-current medium the length to the target
+    comes from re-solved tubes (:func:`simulator.solve.target_length.length_by_resolving`)."""
     d = result.design
+    if moves_with_length(result.case) and d.get("target_conversion") is not None and result.status != "failed":
+        d = length_by_resolving(result.case, model_builder)
     return {"length_m": d["length_m"], "volume_m3": d["volume_m3"], "catalyst_mass_kg": d["catalyst_mass_kg"],
             "outlet_conversion": result.outlet_conversion, "status": result.status,
             "termination": result.termination}
@@ -156,7 +161,8 @@ def check_assumptions(case):
     entries["ideal_gas"] = _ideal_gas_entry(case, full_result, full)
     # constant moles
     eps, delta = mole_change(case)
-    variant = _numbers(simulate(case, model=build_model(case, constant_moles=True)))
+    variant = _numbers(simulate(case, model=build_model(case, constant_moles=True)),
+                       lambda c: build_model(c, constant_moles=True))
     entries["constant_moles"] = _entry(None if eps is None else abs(eps), th.constant_moles, "-", variant, full,
                                        case, "constant-moles variant", "full",
                                        f"|epsilon| = |y_key,0 * delta| (delta = {delta:+.4g})" if delta is not None

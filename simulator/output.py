@@ -63,7 +63,10 @@ def print_summary(result, stream=None):
         hot,
     ]
     if d["target_conversion"] is not None:
-        if d["reached"]:
+        if d["reached"] and d["length_m"] is None:
+            lines.append(f"  target X = {d['target_conversion']:.4g}    met at the outlet of this tube; "
+                         f"{d.get('length_note', 'no length to the target')}")
+        elif d["reached"]:
             extra = f", catalyst {d['catalyst_mass_kg']:.4g} kg" if d["catalyst_mass_kg"] is not None else ""
             lines.append(f"  target X = {d['target_conversion']:.4g}    reached at L = {d['length_m']:.4g} m, "
                          f"V = {d['volume_m3']:.4g} m3 (all tubes){extra}")

@@ -16,6 +16,7 @@ import dataclasses
 import math
 
 from simulator.solve.integrate import simulate
+from simulator.solve.target_length import length_by_resolving, moves_with_length
 from simulator.verdicts import null_where_not_finite
 
 MAX_LENGTH_FACTOR = 64.0      # search up to 64x the given length in (a)
@@ -101,6 +102,8 @@ def length_for_count(case):
     the case's tube count cut at the target crossing, from a re-run of exactly that tube; None when
     no length works) and the ``candidates`` evaluated.
     """
+    if moves_with_length(case):
+        return _length_by_resolving(case)
     length = case.tube.length
     candidates = []
     while True:
@@ -121,6 +124,26 @@ def length_for_count(case):
     candidates.append(cut)
     return {"feasible": True, "binding_constraint": "target_conversion", "note": "",
             "design": _design(case, cut), "candidates": candidates}
+
+
+def _length_by_resolving(case):
+    """(a) for a counter-current medium: the length is a root of X_out(L) - target over re-solved tubes
+    (:mod:`simulator.solve.target_length`); the tube of that length is then judged like any candidate."""
+    found = length_by_resolving(case)
+    if not found["reached"]:
+        cand = _evaluate(_with(case, length=MAX_LENGTH_FACTOR * case.tube.length), "length for the given count")
+        return {"feasible": False, "binding_constraint": binding(cand) or "target_conversion",
+                "note": "no feasible length with this tube count: " + found["note"], "design": None,
+                "candidates": [cand]}
+    cand = _evaluate(_with(case, length=found["length_m"]), "design at the length found")
+    cand["solves"] = found["solves"]
+    failing = binding(cand)
+    note = found["note"]
+    if failing is not None:
+        return {"feasible": False, "binding_constraint": failing, "note": _why_not(cand), "design": None,
+                "candidates": [cand]}
+    return {"feasible": True, "binding_constraint": "target_conversion", "note": note,
+            "design": _design(case, cand), "candidates": [cand]}
 
 
 def _why_not(cand):

@@ -301,6 +301,8 @@ def _screening_block(case, result, screening, reason):
         f"({screening.get('solves', 'n/a')} solves in all).",
         f"Definitions: {g.get('definitions', '')}.",
     ]
+    if screening.get("medium_basis", {}).get("note"):
+        paragraphs.append("Medium: " + screening["medium_basis"]["note"] + ".")
     groups = {"caption": f"Dimensionless groups ({g.get('reaction', '')})", "columns": ["Group", "Value", "Meaning"],
               "rows": [["γ", fmt(g.get("gamma"), 4), "Arrhenius number E/(R·Tc)"],
                        ["ΔT_ad [K]", fixed(g.get("adiabatic_rise_K")), "adiabatic temperature rise of the "
@@ -360,6 +362,22 @@ def _screening_block(case, result, screening, reason):
 
 
 # ----------------------------------------------------------------------------- numerics
+def _steady_states_table(result):
+    """Every steady state of a counter-current run (``summary.json`` ``steady_states``), or None."""
+    states = result.extra.get("steady_states")
+    if not states:
+        return None
+    rows = [["yes" if e.get("describes_outputs") else "",
+             fixed(e.get("medium_outlet_temperature_K"), 2), fixed(e.get("hot_spot_temperature_K"), 2),
+             fmt(e.get("hot_spot_position_m"), 4), fixed(e.get("outlet_conversion"), 4),
+             fixed(e.get("outlet_temperature_K"), 2), e.get("stability", "not determined"), e.get("status", "")]
+            for e in states]
+    return {"caption": "Steady states with the counter-current medium",
+            "columns": ["Described", "Medium outlet (z = 0) [K]", "Hot spot [K]", "Hot spot at [m]",
+                        "Outlet conversion", "Outlet T [K]", "Stability", "Status"],
+            "rows": rows}
+
+
 def _numerics_block(case, result, screening):
     s = result.summary()
     paragraphs = [f"Run status: {result.status}; {result.termination}."]
@@ -401,6 +419,13 @@ def _numerics_block(case, result, screening):
               "rows": [[label, st[k] if isinstance(st.get(k), str) else fmt(st.get(k), 4)]
                        for k, label in labels if k in st]}
     tables = [closure, solver]
+    states = _steady_states_table(result)
+    if states is not None:
+        tables.insert(0, states)
+        paragraphs.append(f"Counter-current medium: {len(states['rows'])} steady state(s) found by shooting on the "
+                          "medium outlet temperature (a scan over the physically possible range, every sign change "
+                          "refined); the profiles and results describe the one marked, the lowest branch, which a "
+                          "start-up from a cold medium reaches.")
     warnings = list(result.warnings)
     if screening is not None:
         num = screening.get("numerics", {})

@@ -237,7 +237,11 @@ def _summary(case, result, assumptions, screening, screening_reason):
     target = d["target_conversion"]
     if target is not None:
         numbers.append({"label": "Target conversion", "value": fmt(target, 4), "unit": "-"})
-        if d["reached"]:
+        if d["length_m"] is None and d.get("length_note") and (assumptions or {}).get("full", {}).get("length_m"):
+            # counter-current medium: the length comes from re-solved tubes (the assumption check's full design)
+            d = {**d, **{k: assumptions["full"][k] for k in ("length_m", "volume_m3", "catalyst_mass_kg")},
+                 "reached": True}
+        if d["reached"] and d["length_m"] is not None:
             numbers.append({"label": "Length to the target", "value": fmt(d["length_m"], 4), "unit": "m"})
             tubes = "1 tube" if case.tube.count == 1 else f"{case.tube.count} tubes"
             numbers.append({"label": f"Reactor volume to the target ({tubes})",
@@ -303,7 +307,11 @@ def _summary(case, result, assumptions, screening, screening_reason):
     flags.append(_hot_spot_flag(case, result, screening, screening_reason))
     flags.append(_runaway_flag(case, result, screening, screening_reason))
     if target is not None:
-        if d["reached"]:
+        if d["reached"] and d["length_m"] is None:
+            flags.append({"level": "acceptable", "label": "Target conversion",
+                          "text": f"X = {fmt(target, 4)} is met at the outlet of the {fmt(case.tube.length, 4)} m "
+                                  f"tube; {d.get('length_note', '')}."})
+        elif d["reached"]:
             flags.append({"level": "acceptable", "label": "Target conversion",
                           "text": f"X = {fmt(target, 4)} is reached at z = {fmt(d['length_m'], 4)} m of "
                                   f"{fmt(case.tube.length, 4)} m."})

@@ -69,6 +69,12 @@ CHECKS = ({'key': 'levenspiel1999',
               'overall adiabatic balance and T - Tc = dT_ad of the ignited state',
   'where': 'autothermal tube with three steady states (configuration; identities derived)',
   'test': 'tests/test_counter_current.py::test_autothermal_tube_has_three_steady_states_with_exact_identities'},
+ {'key': 'levenspiel1999',
+  'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
+  'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
+              'the ideal design of the assumption check, against the closed-form performance equations',
+  'where': 'isothermal first-order plug flow, X = 1 - exp(-k tau)',
+  'test': 'tests/test_counter_current.py::test_length_to_target_with_a_counter_current_medium_matches_the_closed_form'},
  {'key': 'froment1967',
   'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
               '18-27, 1967',

@@ -459,6 +459,7 @@ def screen(case, n_coarse=21):
         "adiabatic_temperature_rise_K": rise,
         "hot_spot": hot,
         "medium_temperature_K": Tc,
+        "medium_basis": medium_basis(case, base_result, scale),
         "temperature_scale_K": scale,
         "groups": groups,
         "criteria": crit,
@@ -480,6 +481,39 @@ def screen(case, n_coarse=21):
                        "adler_enig1964", "morbidelli_varma1988"],
         "_log": v.log,
     })
+
+
+def medium_basis(case, result, scale):
+    """What medium temperature the criteria take, and how far a flowing medium departs from it.
+
+    The published criteria (Semenov, Barkelew, Van Welsenaere-Froment, Adler-Enig) are derived for a
+    medium at one temperature; the screen evaluates them at the medium's given (inlet) temperature
+    ``heat.medium.temperature`` (for a counter-current medium that is its temperature at z = L) and
+    the Morbidelli-Varma boundaries vary that same temperature through the full model. A flowing
+    medium whose temperature changes along the tube by more than a quarter of R Tc^2/E makes the
+    constant-medium criteria approximate: the note says so (the full-model boundaries stay exact).
+
+    Returns
+    -------
+    dict
+        ``arrangement``, ``criteria_medium_temperature_K`` [K], ``medium_range_K`` ([min, max] along
+        the tube, [K]), ``medium_change_K`` [K], ``note`` (plain words; "" for a uniform medium).
+    """
+    Tc = np.asarray(result.Tc, dtype=float)
+    Tc = Tc[np.isfinite(Tc)]
+    lo, hi = (float(Tc.min()), float(Tc.max())) if Tc.size else (math.nan, math.nan)
+    change = hi - lo
+    note = ""
+    if case.heat.arrangement != "uniform" and Tc.size:
+        note = (f"the criteria assume a medium at one temperature; they take {case.heat.medium_temperature:.5g} K, "
+                f"where the {case.heat.arrangement} medium enters; along the tube it runs from {lo:.5g} to "
+                f"{hi:.5g} K")
+        note += (" (less than a quarter of R Tc^2/E, so the constant-medium criteria apply)"
+                 if change <= 0.25 * scale else
+                 f" ({change:.3g} K, more than a quarter of R Tc^2/E = {scale:.3g} K): the constant-medium "
+                 "criteria are approximate here; the Morbidelli-Varma boundaries are from the full model")
+    return {"arrangement": case.heat.arrangement, "criteria_medium_temperature_K": case.heat.medium_temperature,
+            "medium_range_K": [lo, hi], "medium_change_K": change, "note": note}
 
 
 def _finished(report):
@@ -836,8 +870,10 @@ def format_screening(report):
              f"{h['rise_above_medium_K']:+.2f} K above the medium ({h['level']}: {h['reason']}); adiabatic rise "
              f"{report['adiabatic_temperature_rise_K']:.1f} K",
              f"  groups ({g['reaction']}): gamma {g['gamma']:.3g}, B {g['B']:.3g}, St {g['St']:.3g}, "
-             f"Da {g['Da']:.3g}, N {f(g['N'], '.3g')}, psi {f(g['psi'], '.3g')}",
-             "  criteria:"]
+             f"Da {g['Da']:.3g}, N {f(g['N'], '.3g')}, psi {f(g['psi'], '.3g')}"]
+    if report.get("medium_basis", {}).get("note"):
+        lines.append(f"  medium: {report['medium_basis']['note']}")
+    lines.append("  criteria:")
     for name, c in report["criteria"].items():
         extra = ""
         if c.get("critical_feed_mole_fraction") is not None:

@@ -469,5 +469,23 @@ def simulate_counter_current(case, run, model=None, length=None):
     stats = {**result.solver_stats, "wall_time_s": round(time.perf_counter() - started, 4),
              "counter_current": {"method": "shooting on Tc(0): scan, Brent, collocation where marching is unstable",
                                  "steady_states": len(entries), **scan}}
-    return dataclasses.replace(result, warnings=tuple(notes), solver_stats=stats,
+    return dataclasses.replace(result, warnings=tuple(notes), solver_stats=stats, design=_design_in_place(case, result),
                                extra={**result.extra, "steady_states": entries, "shooting": scan})
+
+
+LENGTH_NOTE = ("with a counter-current medium the medium enters at z = L, so a shorter tube has another profile: "
+               "the position where this tube crosses the target is not the length to the target; `tubesim size` "
+               "re-solves tubes of different length for it")
+
+
+def _design_in_place(case, result):
+    """The design block of a counter-current run: whether this tube meets the target, no length.
+
+    The located crossing stays an event (``events.target_conversion``: a position in this tube).
+    """
+    design = dict(result.design)
+    if design.get("target_conversion") is None:
+        return design
+    design.update(reached=bool(result.outlet_conversion >= design["target_conversion"]), length_m=None,
+                  volume_m3=None, catalyst_mass_kg=None, length_note=LENGTH_NOTE)
+    return design
