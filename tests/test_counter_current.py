@@ -272,6 +272,7 @@ def test_scan_whose_marches_fail_is_a_failed_run_that_says_why(write_case):
     assert result.status == "failed"
     assert "no steady state found" in result.termination
     assert "left the range of physical temperatures" in result.termination
+    assert "multiple shooting is not implemented" in result.termination
     assert result.summary()["outlet"]["temperature_K"] is None
 
 
@@ -338,3 +339,27 @@ def test_report_lists_every_steady_state(write_case):
     table = _steady_states_table(result)
     assert len(table["rows"]) == len(result.extra["steady_states"]) == 3
     assert [row[0] for row in table["rows"]].count("yes") == 1
+
+
+def test_marches_that_diverge_keep_the_sign_of_the_side_they_leave(write_case):
+    # regression: a medium of small capacity rate diverges from the gas in the march from z = 0; such
+    # marches were "failed" (NaN), so the scan saw no sign change and the run failed although a steady state
+    # exists. Hydrogenation demo with a counter-current medium of 2 kg/s: the medium heats up and the tube
+    # runs to the temperature limit (a real answer: stopped, not failed)
+    from pathlib import Path
+
+    demo = (Path(__file__).resolve().parents[1] / "cases" / "hydrogenation_cooled_packed_bed.toml").read_text()
+    text = demo.replace('arrangement = "uniform"\ntemperature = "420 K"',
+                        'arrangement = "counter-current"\ntemperature = "415 K"\nmass_flow = "2 kg/s"\n'
+                        'cp = "2.2 kJ/(kg*K)"')
+    case = load_case(write_case(text, name="hcc2.toml"))
+    result = simulate(case)
+    assert result.status == "stopped" and "temperature limit" in result.termination
+    (state,) = result.extra["steady_states"]
+    # the march from the state's medium outlet temperature (no temperature-limit stop) meets the far
+    # boundary condition: the medium enters at z = L at the given 415 K
+    from simulator.solve.counter_current import shooting_problem
+
+    shooting = shooting_problem(case)
+    assert abs(shooting.residual(state["medium_outlet_temperature_K"])) < 1e-3
+    assert shooting.march(state["medium_outlet_temperature_K"]) is not None

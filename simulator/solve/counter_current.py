@@ -66,6 +66,8 @@ UNSTABLE_SLOPE = 1e4
 MARCHING_TOLERANCE = 1e-3
 #: solver steps one march of the scan may take (a march that needs more has left the physical states), [-]
 STEP_BUDGET = 5_000
+#: output points of the march that looks for where a diverging medium leaves the band, [-]
+EXIT_POINTS = 129
 
 
 @dataclasses.dataclass(frozen=True)
@@ -105,9 +107,45 @@ class Shooting:
         return ys
 
     def residual(self, s):
-        """R(s) = Tc(L; s) - T_in, [K]; NaN where the march fails."""
+        """R(s) = Tc(L; s) - T_in, [K]; NaN where the march fails.
+
+        A march that fails because its medium left every temperature a steady state can have
+        (:meth:`exit_residual`) gets the residual of the side it left on, so the scan keeps the
+        sign there (a strongly cooled tube: most marches diverge before z = L).
+        """
         ys = self.march(s)
-        return math.nan if ys is None else float(ys[-1, self.model.n + 2] - self.target)
+        if ys is None:
+            return self.exit_residual(s)
+        return float(ys[-1, self.model.n + 2] - self.target)
+
+    def exit_residual(self, s):
+        """Residual of a march whose medium leaves the band of possible temperatures, [K]; NaN otherwise.
+
+        In the march from z = 0 a counter-current medium runs away from the gas: with the signed
+        C_m < 0, dTc/dz = U pi D (Tc - T) / |C_m|, and the gas follows the medium. Once the medium is
+        outside :func:`exit_band` (the energy-balance range of Tc(0) widened by its span on each
+        side: no steady state has a medium temperature there, by the maximum principle of
+        :func:`scan_range`), it is on the far side of the gas and keeps moving away, so Tc(L) is
+        beyond the exit and R(s) has the sign of the side it left on. The value returned is
+        Tc(exit) - T_in (not Tc(L) - T_in): good for bracketing; a root is only accepted from a march
+        that reaches z = L (:func:`find_roots` refines with these values and then marches the root).
+        """
+        lo, hi = exit_band(self.model, self.target, self.autothermal, self.length)
+        zs = np.linspace(0.0, self.length, EXIT_POINTS)
+        with warnings.catch_warnings(), np.errstate(all="ignore"):
+            warnings.simplefilter("ignore", ODEintWarning)
+            try:
+                ys = odeint(self.kernel.rhs_odeint, self.y0(s), zs, args=self.model.args, rtol=self.rtol,
+                            atol=self.atol, hmax=self.hmax, mxstep=STEP_BUDGET, printmessg=False)
+            except (ArithmeticError, ValueError):
+                return math.nan
+        Tc = ys[:, self.model.n + 2]
+        for value in Tc:
+            if not math.isfinite(value):
+                return math.nan
+            if value < lo or value > hi:
+                return float(value - self.target)
+        return math.nan
 
 
 def gas_capacity_rate(model):
@@ -116,6 +154,14 @@ def gas_capacity_rate(model):
     T0 = model.y0[n]
     nasa = model.args[2]
     return float(sum(model.y0[i] * cp_R(nasa[i], T0) * R_GAS for i in range(n)))
+
+
+def exit_band(model, target, autothermal=False, length=None):
+    """Medium temperatures no steady state reaches: outside (low, high) [K], the range of
+    :func:`scan_range` widened by its span on each side (at least 1 K above absolute zero)."""
+    lo, hi = scan_range(model, target, autothermal, length)
+    span = hi - lo
+    return max(lo - span, 1.0), hi + span
 
 
 def scan_range(model, target, autothermal=False, length=None):
@@ -211,6 +257,12 @@ def find_roots(shooting, bounds, points=SCAN_POINTS):
                 unresolved.append(f"a sign change between {a:.6g} and {b:.6g} K was not refined: {err}")
                 continue
             slope = (rb - ra) / (b - a)
+            if shooting.march(root) is None:
+                # the sign changed between marches that left the band on either side: the root is
+                # where marching cannot follow (the error of the march grows too fast), not a state
+                unresolved.append(f"a sign change between {a:.6g} and {b:.6g} K narrowed to {root:.8g} K, "
+                                  "where the march from z = 0 still leaves the physical temperatures")
+                continue
         if roots and abs(root - roots[-1]["s"]) <= 1e-7 * max(abs(root), 1.0):
             continue
         roots.append({"s": float(root), "slope": float(slope), "bracket": (float(a), float(b))})
@@ -424,11 +476,15 @@ def simulate_counter_current(case, run, model=None, length=None):
     k = described_state(states)
     if k is None:
         base = run(case, model, length)   # only for the case echo, versions and references; no profile kept
-        why = (f"no steady state found: the shooting residual Tc(L) - {Tin:.6g} K did not change sign for a "
+        changed = "changed sign only where marching could not follow" if scan["unresolved_brackets"] else \
+            "did not change sign"
+        why = (f"no steady state found: the shooting residual Tc(L) - {Tin:.6g} K {changed} for a "
                f"medium outlet temperature between {scan['bounds_K'][0]:.6g} and {scan['bounds_K'][1]:.6g} K "
                f"({scan['points']} values, {scan['failed_marches']} of them could not be integrated)")
         instability = marching_instability(build_model(case) if model is None else model, length)
-        if scan["failed_marches"]:
+        if scan["failed_marches"] or scan["unresolved_brackets"]:
+            if scan["unresolved_brackets"]:
+                why += "; " + "; ".join(scan["unresolved_brackets"])
             why += (f": the marches from z = 0 left the range of physical temperatures (NTU of the gas "
                     f"{instability['ntu_gas']:.3g}, of the medium {instability['ntu_medium']:.3g}; an error in the "
                     f"medium outlet temperature grows about e^{instability['growth_exponent']:.3g} along the tube "
