@@ -178,3 +178,34 @@ def test_profile_csv_carries_the_given_temperature(write_case, tmp_path):
     col = header.index("medium_temperature_K")
     assert float(lines[-1].split(",")[col]) == pytest.approx(700.0, abs=1e-9)
     assert float(lines[1].split(",")[col]) == pytest.approx(600.0, abs=1e-9)
+
+
+def test_report_block_shows_the_rows_and_the_flux(write_case):
+    # the report's wall duty is the run's (whole reactor) and the flux of a given q'' is q'' itself
+    from simulator.report.context_wall_profile import wall_profile_block
+
+    q = 10e3
+    case = load_case(write_case(_case(_rows("heat_flux", [(0.0, "10.0 kW/m^2"), (L, "10.0 kW/m^2")]), overall="")))
+    block = wall_profile_block(case, simulate(case))
+    assert block["available"] and [r["position"] for r in block["rows"]] == ["0", "5"]
+    assert f"{q * math.pi * D * L / 1e3:.4g} kW" in block["paragraphs"][0]
+    assert "peak inner-wall flux 10 kW/m^2" in block["paragraphs"][0]
+    uniform = load_case(write_case(_case('arrangement = "uniform"\ntemperature = "800 K"'), "u.toml"))
+    assert not wall_profile_block(uniform, simulate(uniform))["available"]
+
+
+def test_screening_says_a_given_profile_is_not_a_runaway_case(write_case):
+    from simulator.screening.screen import screen
+
+    case = load_case(write_case(_case(_rows("temperature", [(0.0, "800 K"), (L, "700 K")]))))
+    report = screen(case)
+    assert report["applicable"] is False and "wall-profile" in report["reason"]
+    assert report["hot_spot"]["rise_above_medium_K"] is None
+
+
+def test_the_compiled_batch_sweep_sends_a_profile_case_to_the_per_case_path(write_case):
+    from simulator.model.build import build_model
+    from simulator.sweeps.fast import unsupported_reason
+
+    model = build_model(load_case(write_case(_case(_rows("temperature", [(0.0, "800 K"), (L, "700 K")])))))
+    assert "wall-profile" in unsupported_reason(["heat.overall_coefficient"], model)
