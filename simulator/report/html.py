@@ -49,7 +49,7 @@ printed as they are (round them first). "text" below means ``str``.
     conversion; pressure; mole fractions, minor species on a log panel).
     ``notes``: list of text, one per plot left out because it would be a flat
     line (an isothermal tube, a tube without pressure drop), saying why.
-``wall_profile`` : mapping
+``wall_profile`` : mapping, optional
     ``available`` (bool; a given wall profile only), ``paragraphs`` (text), ``rows``
     (``{position, value}``), ``unit`` (text), ``plots`` (list of *plot*).
 ``assumptions``, ``screening``, ``numerics`` : *block* each
