@@ -28,6 +28,7 @@ def wall_profile_block(case, result):
     heat = case.heat
     if heat.arrangement != "wall-profile":
         return {"available": False, "paragraphs": [], "rows": [], "unit": "", "plots": []}
+    from simulator.model.heat.wallprofile import heat_flux
     from simulator.report import plots
 
     given_T = heat.profile_quantity == "temperature"
@@ -36,7 +37,7 @@ def wall_profile_block(case, result):
     if given_T:
         flux = heat.overall_coefficient * (np.asarray(result.Tc, dtype=float) - np.asarray(result.T, dtype=float))
     else:
-        flux = np.interp(z, heat.profile_position, heat.profile_value)
+        flux = heat_flux(heat, z)
     duty = float(result.Q[-1])                 # whole reactor (Result flows and duty are for all tubes)
     rows = [{"position": fmt(p, 4), "value": fixed(v) if given_T else fmt(v / 1e3, 4)}
             for p, v in zip(heat.profile_position, heat.profile_value)]
