@@ -39,7 +39,8 @@ KEYS = {
     "tube": {"length", "inner_diameter", "count", "roughness"},
     "bed": {"particle_diameter", "void_fraction", "bulk_density"},
     "heat": {"mode", "overall_coefficient", "medium"},
-    "heat.medium": {"arrangement", "temperature", "mass_flow", "cp"},
+    "heat.medium": {"arrangement", "temperature", "mass_flow", "cp", "profile"},
+    "heat.medium.profile.*": {"position", "temperature", "heat_flux"},
     "pressure_drop": {"model", "viscosity", "friction_correlation"},
     "design": {"key_species", "target_conversion", "temperature_limit", "max_pressure_drop"},
     "solver": {"rtol", "atol_scale", "output_points", "max_step"},
@@ -47,7 +48,7 @@ KEYS = {
     "uncertainty.*": {"parameter", "distribution", "std", "factor", "low", "high"},
 }
 HEAT_MODES = ("adiabatic", "isothermal", "exchange")
-ARRANGEMENTS = ("uniform", "co-current", "counter-current")
+ARRANGEMENTS = ("uniform", "co-current", "counter-current", "wall-profile")
 RATE_FORMS = ("power-law", "hougen-watson")
 ACTIVITY_BASES = ("concentration", "partial-pressure")
 RATE_BASES = ("reactor-volume", "catalyst-mass")
@@ -579,16 +580,21 @@ def _heat(ck, raw):
     mode = ck.choice(h, "mode", "heat", HEAT_MODES)
     U = Tm = mass_flow = cp = NAN
     arrangement = ""
+    given = ("", (), ())
     if mode == "exchange":
-        U = ck.quantity(h, "overall_coefficient", "heat_transfer_coefficient", "heat", minimum=0.0, strict=False)
         m = ck.table(h, "medium", "heat.medium")
         ck.keys(m, KEYS["heat.medium"], "heat.medium")
         arrangement = ck.choice(m, "arrangement", "heat.medium", ARRANGEMENTS, default="uniform") or "uniform"
-        Tm = ck.quantity(m, "temperature", "temperature", "heat.medium", minimum=0.0)
+        given = _wall_profile(ck, h, m, raw) if arrangement == "wall-profile" else given
+        if given[0] != "heat_flux":
+            U = ck.quantity(h, "overall_coefficient", "heat_transfer_coefficient", "heat", minimum=0.0,
+                            strict=False)
+        if arrangement != "wall-profile":
+            Tm = ck.quantity(m, "temperature", "temperature", "heat.medium", minimum=0.0)
         if arrangement in ("co-current", "counter-current"):
             mass_flow = ck.quantity(m, "mass_flow", "mass_flow", "heat.medium", minimum=0.0)
             cp = ck.quantity(m, "cp", "specific_heat_capacity", "heat.medium", minimum=0.0)
-        else:
+        elif arrangement != "wall-profile":
             extra = [k for k in ("mass_flow", "cp") if isinstance(m, dict) and k in m]
             if extra:
                 ck.fail("heat.medium", f": {', '.join(extra)} given but arrangement = \"uniform\" ignores them; "
@@ -599,7 +605,15 @@ def _heat(ck, raw):
             ck.fail("heat", f": {', '.join(extra)} given but mode = {mode!r} ignores them; remove them or "
                     'write mode = "exchange".')
     return Heat(mode=mode or "isothermal", overall_coefficient=0.0 if math.isnan(U) else U,
-                arrangement=arrangement, medium_temperature=Tm, medium_mass_flow=mass_flow, medium_cp=cp)
+                arrangement=arrangement, medium_temperature=Tm, medium_mass_flow=mass_flow, medium_cp=cp,
+                profile_quantity=given[0], profile_position=given[1], profile_value=given[2])
+
+
+def _wall_profile(ck, h, m, raw):
+    """``[[heat.medium.profile]]`` of a wall-profile medium -> (quantity, positions [m], values [K or W/m^2])."""
+    from simulator.case.wall_profile import read_wall_profile
+
+    return read_wall_profile(ck, h, m, raw)
 
 
 def _pressure_drop(ck, raw, bed):

@@ -12,7 +12,7 @@ from typing import Literal
 
 EquationOfState = Literal["ideal-gas", "peng-robinson"]
 HeatMode = Literal["isothermal", "adiabatic", "exchange"]
-MediumArrangement = Literal["", "uniform", "co-current", "counter-current"]
+MediumArrangement = Literal["", "uniform", "co-current", "counter-current", "wall-profile"]
 PressureDropModel = Literal["none", "ergun", "pipe-friction"]
 ActivityBasis = Literal["concentration", "partial-pressure"]
 RateBasis = Literal["reactor-volume", "catalyst-mass"]
@@ -122,6 +122,9 @@ class Heat:
     medium_temperature: float = NAN      # [K] (inlet temperature: at z = 0 co-current, z = L counter-current)
     medium_mass_flow: float = NAN        # [kg/s] whole bundle (co-/counter-current)
     medium_cp: float = NAN               # [J/(kg*K)] (co-/counter-current)
+    profile_quantity: str = ""           # "temperature" | "heat_flux" (wall-profile), else ""
+    profile_position: tuple = ()         # [m] rows of [[heat.medium.profile]], 0 first, increasing
+    profile_value: tuple = ()            # [K] wall/flue-gas temperature or [W/m^2] inner-wall heat flux
 
     @property
     def exchange(self):

@@ -123,11 +123,15 @@ def build_model(case, species=None, constant_moles=False):
                             "(critical_temperature, critical_pressure, acentric_factor).")
 
     heat = case.heat
-    fp = np.zeros(K.N_FP + 5 * n + 2 * n * n)       # fixed entries, then the per-species tail
+    exchange = arrangement_of(heat)
+    tail = exchange.kernel_tail(heat) if exchange.kernel_tail else np.zeros(0)   # a given profile's table
+    if exchange.kernel_tail:
+        check_profile_covers(case, tube.length)
+    fp = np.zeros(K.N_FP + 5 * n + 2 * n * n + tail.size)       # fixed entries, the per-species tail, then it
+    fp[K.profile_tail(n):] = tail
     fp[K.F_AREA] = area
     fp[K.F_DIAM] = tube.inner_diameter
     fp[K.F_U] = heat.overall_coefficient
-    exchange = arrangement_of(heat)
     fp[K.F_TC] = heat.medium_temperature
     fp[K.F_MCP] = exchange.capacity_rate(heat, tube.count)
     fp[K.F_ROUGH] = tube.roughness
@@ -165,6 +169,15 @@ def build_model(case, species=None, constant_moles=False):
                  key_index=key, count=tube.count, area=area,
                  feed_molar_flow=F_total, viscosity_note=note, critical_sources=tuple(crit_sources),
                  adiabatic=adiabatic_rise(F0, case.feed.temperature, nu, key, args[2]))
+
+
+def check_profile_covers(case, length):
+    """Refuse to integrate a given wall profile beyond its last row (e.g. ``size`` lengthening the tube)."""
+    from simulator.model.heat.wallprofile import uncovered_length
+
+    problem = uncovered_length(case.heat, length) if case.heat.arrangement == "wall-profile" else None
+    if problem:
+        raise CaseError(f"{case.source_path}: {problem}.")
 
 
 def _check_magnitudes(case, area, F_total, G):

@@ -24,6 +24,17 @@ where C_m = +m_c cp_c / N_tubes for a medium flowing with the gas (co-current) a
 sees the signed capacity rate per tube, packed by :mod:`simulator.model.heat`.
     dQ/dz   = U pi D (Tc - T)      (isothermal: the duty that holds T constant)
 
+A given wall profile (``HEAT_PROFILE``, :mod:`simulator.model.heat.wallprofile`) replaces Tc by
+the piecewise-linear temperature Tw(z) on the far side of U, q = U pi D (Tw(z) - T), and the
+state Tc follows it (dTc/dz = dTw/dz); a given heat flux q''(z) [W/m^2 of inner wall] gives
+q = q''(z) pi D and leaves Tc unused (dTc/dz = 0). The profile table is packed after the
+per-species tail (offset ``F_VISC + 5 n + 2 n^2``, written by :func:`profile_tail`)::
+
+    fp[o]                     PROFILE_TEMPERATURE (0) or PROFILE_HEAT_FLUX (1)
+    fp[o + 1]                 k, the number of rows
+    fp[o + 2 .. o + 1 + k]    positions z_0 = 0 < z_1 < .. < z_(k-1) >= L, [m]
+    fp[o + 2 + k .. o + 1 + 2k]  temperature [K] or heat flux [W/m^2] at each position
+
 Here H = sum_i F_i h_i^ig(T) + F_T h^dep(T, P, y) is the enthalpy flow; the
 departure h^dep is zero for an ideal gas and from Peng-Robinson otherwise.
 """
@@ -46,7 +57,8 @@ _laminar = njit(cache=True)(friction_laminar)
 
 # integer parameters ip[...]
 I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN = range(8)
-HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_UNIFORM, HEAT_FLOWING = range(4)
+HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_UNIFORM, HEAT_FLOWING, HEAT_PROFILE = range(5)
+PROFILE_TEMPERATURE, PROFILE_HEAT_FLUX = 0, 1
 DP_NONE, DP_ERGUN, DP_PIPE = range(3)
 EOS_IDEAL, EOS_PR = range(2)
 # float parameters fp[...]
@@ -450,6 +462,45 @@ def viscosity(T, F, fp):
     return mu
 
 
+@njit(cache=True, inline="always")
+def profile_tail(n):
+    """Offset of the given-profile table in ``fp`` for n species (see the module header)."""
+    return F_VISC + 5 * n + 2 * n * n
+
+
+@njit(cache=True, inline="always")
+def given_profile(z, fp, o):
+    """Linear interpolation of the given wall profile at z: (value, d value/dz).
+
+    Parameters
+    ----------
+    z : float
+        Axial position, [m]
+    fp : ndarray
+        Float parameters with the profile table at offset o (module header), [-]
+    o : int
+        Offset of the table, [-]
+
+    Returns
+    -------
+    value : float
+        Temperature [K] or heat flux [W/m^2] at z (the end values held outside the table,
+        which the loader makes cover the tube)
+    slope : float
+        Its derivative along z on the segment holding z, [K/m] or [W/m^3]
+    """
+    k = int(fp[o + 1])
+    zs = o + 2
+    vs = o + 2 + k
+    if z <= fp[zs]:
+        return fp[vs], 0.0
+    for s in range(1, k):
+        if z <= fp[zs + s]:
+            slope = (fp[vs + s] - fp[vs + s - 1]) / (fp[zs + s] - fp[zs + s - 1])
+            return fp[vs + s - 1] + slope * (z - fp[zs + s - 1]), slope
+    return fp[vs + k - 1], 0.0
+
+
 @njit(cache=True)
 def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
     """Right-hand side of one tube, written into ``dydz`` (see the module docstring)."""
@@ -470,8 +521,17 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             if v != 0.0:
                 dydz[i] += v * r
     heat = ip[I_HEAT]
-    if heat == HEAT_UNIFORM or heat == HEAT_FLOWING:
+    given_flux = False
+    dTc = 0.0
+    if heat == HEAT_PROFILE:   # a given wall temperature Tw(z) stands in for Tc, or a given heat flux
+        o = profile_tail(n)
+        Tc, dTc = given_profile(z, fp, o)
+        given_flux = fp[o] == PROFILE_HEAT_FLUX
+    if heat == HEAT_UNIFORM or heat == HEAT_FLOWING or (heat == HEAT_PROFILE and not given_flux):
         qw = fp[F_U] * math.pi * fp[F_DIAM] * (Tc - T)
+    elif given_flux:
+        qw = Tc * math.pi * fp[F_DIAM]
+        dTc = 0.0
     else:
         qw = 0.0
     # pressure gradient
@@ -533,7 +593,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
     if heat == HEAT_FLOWING:
         dydz[n + 2] = -qw / fp[F_MCP]   # F_MCP is signed: < 0 for a medium flowing against the gas
     else:
-        dydz[n + 2] = 0.0
+        dydz[n + 2] = dTc               # a given wall profile's slope; 0 otherwise
 
 
 @njit(cache=True)

@@ -212,6 +212,7 @@ def build_context(case, result, assumptions=None, screening=None, command_line="
     dict
         The context; every number rounded and printed with its unit, [-]
     """
+    from simulator.report.context_wall_profile import wall_profile_block
     from simulator.report.validation import published_checks
 
     stamp = generated or _dt.datetime.now(_dt.timezone.utc)
@@ -230,6 +231,7 @@ def build_context(case, result, assumptions=None, screening=None, command_line="
         "summary": _without_units_on_words(_summary(case, result, assumptions, screening, screening_reason)),
         "inputs": inputs,
         "profiles": _profiles(case, result),
+        "wall_profile": wall_profile_block(case, result),
         "assumptions": _assumptions_block(case, assumptions),
         "screening": _screening_block(case, result, screening, screening_reason),
         "numerics": numerics,

@@ -44,7 +44,7 @@ def _temperature_profile(case, result, exothermic):
     from simulator.report import plots
 
     z, T = result.z, np.asarray(result.T, dtype=float)
-    cooled = case.heat.exchange
+    cooled = case.heat.exchange and case.heat.profile_quantity != "heat_flux"   # a given flux: no medium
     if not cooled and float(np.ptp(T)) < FLAT_TEMPERATURE:
         how = ("the tube is isothermal (heat.mode = \"isothermal\")" if case.heat.mode == "isothermal"
                else "the temperature does not change along the tube")

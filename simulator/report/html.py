@@ -49,6 +49,9 @@ printed as they are (round them first). "text" below means ``str``.
     conversion; pressure; mole fractions, minor species on a log panel).
     ``notes``: list of text, one per plot left out because it would be a flat
     line (an isothermal tube, a tube without pressure drop), saying why.
+``wall_profile`` : mapping, optional
+    ``available`` (bool; a given wall profile only), ``paragraphs`` (text), ``rows``
+    (``{position, value}``), ``unit`` (text), ``plots`` (list of *plot*).
 ``assumptions``, ``screening``, ``numerics`` : *block* each
     ``numerics`` has one more key, ``warnings``: list of text (may be empty).
 ``validation`` : list of ``{key, source, compared, count}``

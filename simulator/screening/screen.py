@@ -370,6 +370,14 @@ def screen(case, n_coarse=21):
             "wall_duty_W": float(base_result.Q[-1]), "largest_rise_above_medium_K": None,
             "reason": f'heat.mode = "{case.heat.mode}": runaway screening needs a tube cooled through its wall '
                       '(heat.mode = "exchange" with a [heat.medium]); nothing was screened'})
+    if case.heat.arrangement == "wall-profile":
+        # a given wall temperature or flux is not a coolant whose removal competes with the reaction
+        return _not_applicable(case, base_result, {
+            "applicable": False, "dominant": None, "net_heat_release_W": None, "heat_release_by_reaction_W": {},
+            "wall_duty_W": float(base_result.Q[-1]), "largest_rise_above_medium_K": None,
+            "reason": 'heat.medium.arrangement = "wall-profile": the tube is heated or cooled by a given wall '
+                      "temperature or heat-flux profile, not by a medium at one temperature, which the runaway "
+                      "criteria assume; nothing was screened"})
     applies = applicability(case, base_result, build_model(case))
     if not applies["applicable"]:
         return _not_applicable(case, base_result, applies)
@@ -534,7 +542,7 @@ def _not_applicable(case, result, applies):
     hot = dict(result.hot_spot)
     hot["rise_above_medium_K"] = applies["largest_rise_above_medium_K"]
     hot["margin_to_maxima_curve_K"] = None
-    if case.heat.exchange:
+    if case.heat.exchange and case.heat.arrangement != "wall-profile":
         risk, level = "not applicable", risk_level("not applicable")
         hot.update({"level": ACCEPTABLE, "reason": "no runaway hot spot: " + applies["reason"]})
     else:

@@ -31,7 +31,7 @@ from scipy.optimize import brentq
 from simulator.case.plausibility import plausibility_warnings
 from simulator.model import kernel as model_kernel
 from simulator.model import kernels
-from simulator.model.build import build_model
+from simulator.model.build import build_model, check_profile_covers
 from simulator.model.heat import arrangement_of
 from simulator.results import Result
 from simulator.units import R as R_GAS
@@ -437,6 +437,7 @@ def _simulate(case, model=None, length=None):
     model = model or build_model(case)
     n = model.n
     L = case.tube.length if length is None else length
+    check_profile_covers(case, L)
     opts = case.solver
     zs = np.linspace(0.0, L, opts.output_points)
     atol = model.scale * opts.atol_scale
@@ -552,7 +553,8 @@ def _simulate(case, model=None, length=None):
             design.update(_design_numbers(case, model, 0.0))
 
     hot = _hot_spot(tube, zs, ys, dTdz, n, case, stopped_by_limit="temperature_limit" in events)
-    Tc = ys[:, n + 2]
+    along = arrangement_of(case.heat).medium_along
+    Tc = along(case.heat, zs) if along else ys[:, n + 2]   # a given wall profile exactly as given
     Z = _guarded(lambda: compressibility_profile(model, ys, tube.K), np.full(len(zs), np.nan))
     count = model.count
     clos = _guarded(lambda: closure(model, ys, tube.K), {"elements_relative": math.nan, "energy_relative": math.nan})
@@ -735,7 +737,7 @@ def _hermite_stationary_point(z0, z1, T0, T1, d0, d1):
 
 
 def _rise_above_medium(case, y):
-    if not case.heat.exchange:
+    if not case.heat.exchange or case.heat.profile_quantity == "heat_flux":   # a given flux: no medium
         return None
     n = len(case.species)
     return float(y[n] - y[n + 2])

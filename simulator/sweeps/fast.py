@@ -114,6 +114,8 @@ def unsupported_reason(paths, model=None):
     if case is not None and case.heat.exchange and case.heat.arrangement == "counter-current":
         return ('heat.medium.arrangement = "counter-current": a two-point boundary-value problem, solved per '
                 "case by shooting (not by the compiled batch integrator)")
+    if case is not None and case.heat.arrangement == "wall-profile":
+        return 'heat.medium.arrangement = "wall-profile": a given profile table, solved per case'
     for path in paths:
         if case is not None:
             try:

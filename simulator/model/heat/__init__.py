@@ -18,11 +18,11 @@ in the kernel or the builder. Two-point problems (counter-current) are solved ar
 ``simulate()`` by :mod:`simulator.solve.counter_current`.
 """
 from simulator.model.heat.base import Arrangement
-from simulator.model.heat import cocurrent, countercurrent, none, uniform
+from simulator.model.heat import cocurrent, countercurrent, none, uniform, wallprofile
 
 #: ``heat.medium.arrangement`` -> Arrangement (with ``heat.mode = "exchange"``)
 ARRANGEMENTS = {"uniform": uniform.ARRANGEMENT, "co-current": cocurrent.ARRANGEMENT,
-                "counter-current": countercurrent.ARRANGEMENT}
+                "counter-current": countercurrent.ARRANGEMENT, "wall-profile": wallprofile.ARRANGEMENT}
 #: ``heat.mode`` without a medium -> Arrangement
 WITHOUT_MEDIUM = {"adiabatic": none.ADIABATIC, "isothermal": none.ISOTHERMAL}
 

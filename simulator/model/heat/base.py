@@ -25,6 +25,11 @@ class Arrangement:
         None for a uniform bath (the energy closure then uses the wall duty).
     boundary_value : bool
         True when the medium's given temperature is at z = L (a two-point problem).
+    kernel_tail : callable or None
+        heat -> extra float parameters appended to ``fp`` (a given profile's table), or None.
+    medium_along : callable or None
+        (heat, z) -> the medium temperature at z when it is given rather than integrated, [K]
+        (NaN where there is none); None: the kernel's Tc state is the medium temperature.
     """
 
     name: str
@@ -33,6 +38,8 @@ class Arrangement:
     medium_at_inlet: Callable
     medium_enthalpy_change: Optional[Callable] = None
     boundary_value: bool = False
+    kernel_tail: Optional[Callable] = None
+    medium_along: Optional[Callable] = None
 
 
 def unused_capacity(heat, count):
