@@ -47,3 +47,25 @@ def test_approach_is_one_at_the_equilibrium_cantera_computes():
     nu = stoichiometric_matrix(_case(), SPECIES)[:, 0]
     q = approach_to_equilibrium(_nasa(full), nu, gas.X[None, :], np.array([720.0]), np.array([150e5]))
     assert q[0] == pytest.approx(1.0, rel=1e-6)
+
+
+@pytest.mark.published("levenspiel1999", "ch. 8, reactions in series A -> R -> S, plug flow: tau_max and "
+                       "C_R,max/C_A0 = (k1/k2)^(k2/(k2-k1)) (equation numbers from memory)")
+def test_series_yield_maximum_against_closed_form():
+    # flows of the closed form itself (no solve): checks the extents, the yield and the selectivity rule
+    from simulator.network import extents, yield_and_selectivity
+
+    k1, k2 = 2.0, 0.5                      # [1/s]
+    t = np.linspace(0.0, 6.0, 60001)       # residence time [s]
+    A = np.exp(-k1 * t)
+    B = k1 / (k2 - k1) * (np.exp(-k1 * t) - np.exp(-k2 * t))
+    F = np.column_stack([A, B, 1.0 - A - B])
+    nu = np.array([[-1.0, 0.0], [1.0, -1.0], [0.0, 1.0]])
+    xi = extents(nu, F)
+    assert np.allclose(xi[:, 0], 1.0 - A) and np.allclose(xi[:, 1], 1.0 - A - B)
+    y_B, s_B = yield_and_selectivity(F, 0, 1, 1.0)
+    k = int(np.argmax(y_B))
+    assert t[k] == pytest.approx(np.log(k2 / k1) / (k2 - k1), abs=1e-4)     # grid spacing 1e-4 s
+    assert y_B[k] == pytest.approx((k1 / k2) ** (k2 / (k2 - k1)), rel=1e-8)
+    assert s_B[k] == pytest.approx(y_B[k] / (1.0 - A[k]), rel=1e-12)
+    assert np.isnan(s_B[0])    # nothing converted at the inlet: selectivity not defined
