@@ -19,7 +19,7 @@ PACKAGE_NAME = "simulator"
 LAYERS = [
     ("errors", "units", "references", "fileio", "verdicts"),
     ("case", "thermo", "kinetics"),
-    ("model", "results"),
+    ("model", "results", "network"),
     ("solve", "output"),
     ("sweeps",),
     ("screening", "assumptions", "sizing", "readiness"),
