@@ -75,6 +75,13 @@ CHECKS = ({'key': 'levenspiel1999',
               'the ideal design of the assumption check, against the closed-form performance equations',
   'where': 'isothermal first-order plug flow, X = 1 - exp(-k tau)',
   'test': 'tests/test_counter_current.py::test_length_to_target_with_a_counter_current_medium_matches_the_closed_form'},
+ {'key': 'levenspiel1999',
+  'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
+  'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
+              'the ideal design of the assumption check, against the closed-form performance equations',
+  'where': 'ch. 8, reactions in series A -> R -> S, plug flow: tau_max and C_R,max/C_A0 = '
+           '(k1/k2)^(k2/(k2-k1)) (equation numbers from memory)',
+  'test': 'tests/test_network.py::test_series_yield_maximum_against_closed_form'},
  {'key': 'froment1967',
   'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
               '18-27, 1967',
