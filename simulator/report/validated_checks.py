@@ -102,6 +102,40 @@ CHECKS = ({'key': 'levenspiel1999',
   'where': "runaway between p0 = 0.0175 and 0.018 atm (independent reproduction; the source's figure shows "
            'it just above 0.018 atm, from memory)',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_jumps_between_0_0175_and_0_018_atm'},
+ {'key': 'aris1975',
+  'citation': 'R. Aris, The Mathematical Theory of Diffusion and Reaction in Permeable Catalysts, vol. 1, '
+              'Clarendon Press, Oxford, 1975; E.W. Thiele, Ind. Eng. Chem. 31, 916-920, 1939',
+  'compared': 'Effectiveness factors of first-order reactions in three pellet shapes and of a zero-order '
+              'reaction in a slab against the closed forms',
+  'where': 'first-order closed forms, slab, cylinder and sphere',
+  'test': 'tests/test_pellet.py::test_first_order_closed_forms'},
+ {'key': 'aris1975',
+  'citation': 'R. Aris, The Mathematical Theory of Diffusion and Reaction in Permeable Catalysts, vol. 1, '
+              'Clarendon Press, Oxford, 1975; E.W. Thiele, Ind. Eng. Chem. 31, 916-920, 1939',
+  'compared': 'Effectiveness factors of first-order reactions in three pellet shapes and of a zero-order '
+              'reaction in a slab against the closed forms',
+  'where': 'large-modulus asymptote eta -> 1/Phi with L = V_p/S_p',
+  'test': 'tests/test_pellet.py::test_first_order_asymptote'},
+ {'key': 'aris1975',
+  'citation': 'R. Aris, The Mathematical Theory of Diffusion and Reaction in Permeable Catalysts, vol. 1, '
+              'Clarendon Press, Oxford, 1975; E.W. Thiele, Ind. Eng. Chem. 31, 916-920, 1939',
+  'compared': 'Effectiveness factors of first-order reactions in three pellet shapes and of a zero-order '
+              'reaction in a slab against the closed forms',
+  'where': 'zero order in a slab: eta = 1 up to Phi_0 = 1, 1/Phi_0 beyond',
+  'test': 'tests/test_pellet.py::test_zero_order_slab'},
+ {'key': 'bischoff1965',
+  'citation': "K.B. Bischoff, 'Effectiveness factors for general reaction rate forms', AIChE J. 11, 351-355, "
+              '1965',
+  'compared': 'Generalized modulus of n-th order reactions against its definition and the first-order Thiele '
+              'modulus',
+  'where': 'generalized modulus Phi_n = L sqrt((n+1)/2 k c_s^(n-1)/D_e)',
+  'test': 'tests/test_pellet.py::test_generalized_modulus_reduces_to_aris_for_first_order_and_scales_for_other_orders'},
+ {'key': 'weisz_prater1954',
+  'citation': "P.B. Weisz, C.D. Prater, 'Interpretation of measurements in experimental catalysis', Adv. "
+              'Catal. 6, 143-196, 1954',
+  'compared': 'Weisz-Prater number by hand and its identity eta Phi^2 for a first-order reaction',
+  'where': 'N_WP = r_obs L^2/(D_e c_s), by hand',
+  'test': 'tests/test_pellet.py::test_weisz_prater_number_by_hand_and_first_order_identity'},
  {'key': 'cantera',
   'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
               "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
