@@ -42,7 +42,8 @@ def ideal_case(case):
                                  medium_temperature=NAN,
                                  medium_mass_flow=NAN, medium_cp=NAN),
         pressure_drop=dataclasses.replace(case.pressure_drop, model="none"),
-        thermo=dataclasses.replace(case.thermo, equation_of_state="ideal-gas"),
+        thermo=case.thermo if case.thermo.equation_of_state == "liquid"   # a liquid stays a liquid
+        else dataclasses.replace(case.thermo, equation_of_state="ideal-gas"),
         design=dataclasses.replace(case.design, temperature_limit=NAN),
     )
 

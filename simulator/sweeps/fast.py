@@ -114,6 +114,8 @@ def unsupported_reason(paths, model=None):
     if case is not None and case.heat.exchange and case.heat.arrangement == "counter-current":
         return ('heat.medium.arrangement = "counter-current": a two-point boundary-value problem, solved per '
                 "case by shooting (not by the compiled batch integrator)")
+    if case is not None and case.thermo.equation_of_state == "liquid":
+        return 'thermo.equation_of_state = "liquid": solved per case (not by the compiled batch integrator)'
     for path in paths:
         if case is not None:
             try:
