@@ -23,7 +23,7 @@ def _raw(**heat):
     return raw
 
 
-@pytest.mark.published("levenspiel1999", "ch. 5, Eq. 5.23 (first-order PFR, constant density)")
+@pytest.mark.published("levenspiel1999", "ch. 5, first-order plug flow of constant density (chapter from memory)")
 def test_isothermal_first_order_liquid_matches_closed_form():
     # analytic: X = 1 - exp(-k tau), tau = V / Q with Q = m_dot / rho (constant density)
     raw = _raw(mode="isothermal")
@@ -36,7 +36,7 @@ def test_isothermal_first_order_liquid_matches_closed_form():
     assert result.outlet_conversion == pytest.approx(1.0 - math.exp(-k * tau), rel=1e-6)
 
 
-@pytest.mark.published("levenspiel1999", "ch. 9, adiabatic operation: T - T0 = dT_ad X (constant cp)")
+@pytest.mark.published("levenspiel1999", "ch. 9, adiabatic operating line T - T0 = dT_ad X (chapter from memory)")
 def test_adiabatic_liquid_follows_the_straight_line():
     # analytic: with constant species cp, T - T0 = dT_ad X, dT_ad = (-dH) x_A0 / sum_i x_i cp_i
     case = load_case_dict(_raw(mode="adiabatic"))
@@ -69,3 +69,10 @@ def test_liquid_refuses_partial_pressure_rates_and_species_files():
     raw["thermo"]["equation_of_state"] = "ideal-gas"
     with pytest.raises(CaseError, match=r"thermo: density"):
         load_case_dict(raw)
+
+
+def test_assumptions_say_ideal_gas_does_not_apply_to_a_liquid():
+    from simulator.assumptions import check_assumptions
+    report = check_assumptions(load_case_dict(_raw(mode="adiabatic")))
+    row = report["assumptions"]["ideal_gas"]
+    assert row["value"] is None and "does not apply" in row["design_change_basis"]
