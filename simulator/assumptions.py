@@ -43,7 +43,8 @@ def ideal_case(case):
                                  medium_temperature=NAN,
                                  medium_mass_flow=NAN, medium_cp=NAN),
         pressure_drop=dataclasses.replace(case.pressure_drop, model="none"),
-        thermo=dataclasses.replace(case.thermo, equation_of_state="ideal-gas"),
+        thermo=case.thermo if case.thermo.equation_of_state == "liquid"   # a liquid stays a liquid
+        else dataclasses.replace(case.thermo, equation_of_state="ideal-gas"),
         design=dataclasses.replace(case.design, temperature_limit=NAN),
     )
 
@@ -205,6 +206,13 @@ def _entry(value, threshold, unit, variant, full, case, label_variant, label_ful
 
 def _ideal_gas_entry(case, full_result, full):
     th = case.assumptions.ideal_gas
+    if case.thermo.equation_of_state == "liquid":   # no gas law is used, so none is assumed
+        return {"value": None, "threshold": th, "unit": "-", "verdict": "holds",
+                "level": assumption_level("holds", 0.0), "design_change_percent": None,
+                "design_change_basis": "does not apply: a liquid feed has no gas law (concentrations from the "
+                                       "liquid density, independent of the pressure)",
+                "outlet_conversion_change": None, "measure": "does not apply to a liquid feed",
+                "threshold_source": "-"}
     Z = full_result.Z
     source = "5 % (common practice)" if th == 0.05 else "case [assumptions] table"
     if not np.any(np.isfinite(Z)):

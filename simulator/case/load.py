@@ -19,6 +19,7 @@ from simulator.case.schema import (
     AssumptionThresholds, Bed, Case, CustomSpecies, Design, Feed, Heat, InhibitionTerm, PressureDrop,
     Reaction, SolverOptions, Thermo, Tube,
 )
+from simulator.case.liquid import liquid_density_law, liquid_problems
 from simulator.errors import CaseError, ThermoError, UnitError
 from simulator.thermo.species_data import near, resolve_species_file, species_in_file
 from simulator.units import SI_UNITS, is_normal_volume, parse_quantity
@@ -28,7 +29,8 @@ NAN = float("nan")
 KEYS = {
     "": {"title", "source", "description", "thermo", "reactions", "feed", "tube", "bed", "heat",
          "pressure_drop", "design", "solver", "assumptions", "uncertainty"},
-    "thermo": {"species_file", "equation_of_state", "custom", "critical"},
+    "thermo": {"species_file", "equation_of_state", "custom", "critical", "density", "density_at",
+               "expansion_coefficient"},
     "thermo.custom.*": {"molar_mass", "cp", "enthalpy_of_formation", "standard_entropy",
                         "critical_temperature", "critical_pressure", "acentric_factor"},
     "thermo.critical.*": {"critical_temperature", "critical_pressure", "acentric_factor"},
@@ -76,7 +78,7 @@ PRESSURE_MODELS = ("none", "ergun", "pipe-friction")
 #: Unknown species that get did-you-mean hints; the rest are listed plainly.
 MAX_HINTS = 20
 FRICTION = ("churchill-1977", "colebrook-1939", "blasius-1913", "laminar")
-EOS = ("ideal-gas", "peng-robinson")
+EOS = ("ideal-gas", "peng-robinson", "liquid")
 
 
 class _Checker:
@@ -281,6 +283,7 @@ def load_case_dict(raw, source_path="", case_dir=None):
     if any(r.rate_basis == "catalyst-mass" for r in reactions) and bed is None:
         ck.fail("reactions", ': rate_basis = "catalyst-mass" needs a [bed] table with bulk_density.')
 
+    liquid_problems(ck, thermo, reactions)
     species = _species_order(feed, reactions)
     _check_species(ck, species, thermo, reactions, feed, design)
 
@@ -353,8 +356,10 @@ def _thermo(ck, raw, case_dir):
                              ck.number(entry, "acentric_factor", path, lo=-1.0, hi=2.0, required=True)))
     if species_file is None and not custom:
         ck.fail("thermo", ": give species_file (a Cantera YAML file) or declare [thermo.custom.NAME] species.")
+    rho, rho_at, beta = liquid_density_law(ck, t, eos)
     return Thermo(species_file=species_file, species_path=species_path, equation_of_state=eos,
-                  custom=tuple(custom), critical=tuple(critical))
+                  custom=tuple(custom), critical=tuple(critical), density=rho, density_at=rho_at,
+                  expansion_coefficient=beta)
 
 
 def _activity_unit(in_terms_of):

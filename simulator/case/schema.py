@@ -10,7 +10,7 @@ molar flows [mol/s], mass flows [kg/s], molar masses [kg/mol], heat capacities
 from dataclasses import dataclass, field
 from typing import Literal
 
-EquationOfState = Literal["ideal-gas", "peng-robinson"]
+EquationOfState = Literal["ideal-gas", "peng-robinson", "liquid"]
 HeatMode = Literal["isothermal", "adiabatic", "exchange"]
 MediumArrangement = Literal["", "uniform", "co-current", "counter-current", "wall-profile"]
 PressureDropModel = Literal["none", "ergun", "pipe-friction"]
@@ -46,6 +46,9 @@ class Thermo:
     equation_of_state: EquationOfState
     custom: tuple[CustomSpecies, ...] = ()
     critical: tuple[tuple[str, float, float, float], ...] = ()  # (name, Tc [K], Pc [Pa], omega [-]) overrides
+    density: float = NAN                 # [kg/m^3] liquid density at density_at (equation_of_state = "liquid")
+    density_at: float = NAN              # [K] temperature of ``density``; NaN -> the feed temperature
+    expansion_coefficient: float = 0.0   # [1/K] beta of rho(T) = density [1 - beta (T - density_at)]
 
 
 @dataclass(frozen=True)

@@ -55,6 +55,11 @@ def feed_molar_flow(case, species):
         return value
     if kind == "mass_flow":
         return value / float(x @ species.molar_mass)
+    if case.thermo.equation_of_state == "liquid":   # volumetric flow of the liquid at the feed temperature
+        th = case.thermo
+        T_ref = case.feed.temperature if np.isnan(th.density_at) else th.density_at
+        rho = float(K.liquid.density(case.feed.temperature, th.density, th.expansion_coefficient, T_ref))
+        return value * rho / float(x @ species.molar_mass)
     # volumetric flow at feed T and P with the case's equation of state
     Z = 1.0
     if case.thermo.equation_of_state == "peng-robinson":
@@ -140,6 +145,10 @@ def build_model(case, species=None, constant_moles=False):
     fp[K.F_T0] = case.feed.temperature
     fp[K.F_P0] = case.feed.pressure
     fp[K.F_FT0] = F0.sum()
+    liquid = case.thermo.equation_of_state == "liquid"
+    if liquid:
+        fp[K.F_RHOL], fp[K.F_BETA] = case.thermo.density, case.thermo.expansion_coefficient
+        fp[K.F_TRHO] = case.feed.temperature if np.isnan(case.thermo.density_at) else case.thermo.density_at
     if case.bed is not None:
         fp[K.F_RHOB] = case.bed.bulk_density
         fp[K.F_EPS] = case.bed.void_fraction
@@ -147,12 +156,15 @@ def build_model(case, species=None, constant_moles=False):
     note = ""
     fp[K.F_MUT0] = case.feed.temperature
     fp[K.F_MU0] = 1.0
+    if case.pressure_drop.model != "none" and liquid and np.isnan(case.pressure_drop.viscosity):
+        raise CaseError(f"{case.source_path}: pressure_drop.viscosity: missing; a liquid feed needs its viscosity "
+                        "(e.g. \"1.2e-3 Pa*s\"): there are no transport data for liquids")
     if case.pressure_drop.model != "none":
         note = _viscosity_law(case, species, fp, x0)
 
     ip = np.array([n, m, exchange.kernel_code, DP_CODES[case.pressure_drop.model],
                    FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax,
-                   1 if constant_moles else 0], dtype=np.int64)
+                   1 if constant_moles else 0, K.PHASE_LIQUID if liquid else K.PHASE_GAS], dtype=np.int64)
     # the medium at z = 0; a counter-current medium's is the unknown of the shooting method
     # (simulator.solve.counter_current sets it), its inlet temperature at z = L stands in here
     Tc0 = exchange.medium_at_inlet(heat)

@@ -43,6 +43,7 @@ import math
 import numpy as np
 from numba import njit
 
+from simulator.model import liquid
 from simulator.model.pressure_drop import churchill_1977, blasius_1913, colebrook_1939, friction_laminar
 from simulator.thermo.nasa7 import cp_R, h_RT, s_R
 from simulator.units import P_STANDARD, R
@@ -56,15 +57,16 @@ _colebrook = njit(cache=True)(colebrook_1939)
 _laminar = njit(cache=True)(friction_laminar)
 
 # integer parameters ip[...]
-I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN = range(8)
+I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN, I_PHASE = range(9)
+PHASE_GAS, PHASE_LIQUID = range(2)   # ip[I_PHASE]: the concentration closure (simulator.model.liquid)
 HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_UNIFORM, HEAT_FLOWING, HEAT_PROFILE = range(5)
 PROFILE_TEMPERATURE, PROFILE_HEAT_FLUX = 0, 1
 DP_NONE, DP_ERGUN, DP_PIPE = range(3)
 EOS_IDEAL, EOS_PR = range(2)
 # float parameters fp[...]
 (F_AREA, F_DIAM, F_U, F_TC, F_MCP, F_RHOB, F_EPS, F_DP, F_MU0, F_MUEXP, F_MUT0, F_ROUGH, F_G,
- F_PMIN, F_T0, F_P0, F_FT0, F_MUMODE) = range(18)
-N_FP = 18
+ F_PMIN, F_T0, F_P0, F_FT0, F_MUMODE, F_RHOL, F_BETA, F_TRHO) = range(21)
+N_FP = 21   # F_RHOL, F_BETA, F_TRHO: liquid density law rho(T) = rho_ref [1 - beta (T - T_ref)]
 # per-species tail of fp (n species; independent of the feed, so a sweep may copy it), see build.py:
 #   fp[F_VISC + 5 i + c]               viscosity fit of species i (Cantera's form, see viscosity)
 #   fp[F_VISC + 5 n + n i + k]         (M_k / M_i)^(1/4)                          (Wilke)
@@ -314,6 +316,9 @@ def _mixture(T, P, F, ip, fp, crit):
     for i in range(n):
         Ft += max(F[i], 0.0)
     inv = 1.0 / Ft
+    if ip[I_PHASE] == PHASE_LIQUID:   # C_i = F_i rho / m_dot: no gas law, no mole change (also when frozen)
+        return inv, liquid.total_concentration(T, Ft, fp[F_G] * fp[F_AREA], fp[F_RHOL], fp[F_BETA],
+                                               fp[F_TRHO]), 1.0
     Z = 1.0
     if ip[I_EOS] == EOS_PR:   # Z of the true composition (normalised mole fractions), also when frozen
         x = np.empty(n)
@@ -543,7 +548,10 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             Fi = max(F[i], 0.0)
             Ft += Fi
             mass += Fi * mw[i]
-        rho = P * (mass / Ft) / (Z * R * T)
+        if ip[I_PHASE] == PHASE_LIQUID:
+            rho = liquid.density(T, fp[F_RHOL], fp[F_BETA], fp[F_TRHO])
+        else:
+            rho = P * (mass / Ft) / (Z * R * T)
         G = fp[F_G]
         mu = viscosity(T, F, fp)
         if ip[I_DP] == DP_ERGUN:
@@ -759,13 +767,13 @@ def _refresh_cache():
     import os
 
     from simulator import units
-    from simulator.model import pressure_drop
+    from simulator.model import liquid, pressure_drop
     from simulator.model.jit_cache import refresh_if_sources_changed
     from simulator.thermo import nasa7
 
     compiled = sorted(_dispatchers(globals()), key=lambda d: d.py_func.__module__ != __name__)  # own first
     if compiled and not os.environ.get("NUMBA_DISABLE_JIT"):
-        refresh_if_sources_changed("kernel", compiled, [__file__, nasa7.__file__, pressure_drop.__file__,
+        refresh_if_sources_changed("kernel", compiled, [__file__, nasa7.__file__, pressure_drop.__file__, liquid.__file__,
                                                          units.__file__])
 
 

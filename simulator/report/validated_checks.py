@@ -97,6 +97,18 @@ CHECKS = ({'key': 'levenspiel1999',
   'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
   'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
               'the ideal design of the assumption check, against the closed-form performance equations',
+  'where': 'ch. 5, first-order plug flow of constant density (chapter from memory)',
+  'test': 'tests/test_liquid.py::test_isothermal_first_order_liquid_matches_closed_form'},
+ {'key': 'levenspiel1999',
+  'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
+  'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
+              'the ideal design of the assumption check, against the closed-form performance equations',
+  'where': 'ch. 9, adiabatic operating line T - T0 = dT_ad X (chapter from memory)',
+  'test': 'tests/test_liquid.py::test_adiabatic_liquid_follows_the_straight_line'},
+ {'key': 'levenspiel1999',
+  'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
+  'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
+              'the ideal design of the assumption check, against the closed-form performance equations',
   'where': 'ch. 8, reactions in series A -> R -> S, plug flow: tau_max and C_R,max/C_A0 = '
            '(k1/k2)^(k2/(k2-k1)) (equation numbers from memory)',
   'test': 'tests/test_network.py::test_series_yield_maximum_against_closed_form'},
