@@ -112,3 +112,18 @@ def test_cli_refuses_a_train_in_one_line_with_exit_2(tmp_path, capsys, verb):
     assert main([verb, str(path), "--out", str(tmp_path / "out")]) == 2
     err = capsys.readouterr().err.strip().splitlines()
     assert len(err) == 1 and "train: a reactor train" in err[0]
+
+
+def test_inlet_flows_enter_the_tube_exactly():
+    # invariant: a bed fed by an upstream outlet gets those flows bit for bit (no renormalisation)
+    import dataclasses
+
+    from simulator.model.build import build_model
+
+    case = load_case_dict(_train(_bed("0.5 m", {"kind": "cool-to", "temperature": "700 K"}), _bed("0.8 m")))
+    bed2 = case.train[1].case
+    flows = (0.1 * 100.0 / 3.0, 0.11 * 100.0, 0.79 * 100.0, 7.0 / 3.0)      # SO2, O2, N2, SO3 (whole reactor)
+    feed = dataclasses.replace(bed2.feed, inlet_flows=flows, flow_value=sum(flows))
+    model = build_model(dataclasses.replace(bed2, feed=feed))
+    assert bed2.species == ("SO2", "O2", "N2", "SO3")
+    assert tuple(model.y0[:4] * model.count) == flows
