@@ -186,6 +186,9 @@ def _validate(args):
     case = ready.case
     print(f"{args.case}: valid ({len(case.species)} species, {_plural(len(case.reactions), 'reaction')}, "
           f"{_plural(case.tube.count, 'tube')}, heat mode {case.heat.mode}, pressure drop {case.pressure_drop.model})")
+    if case.train:
+        print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); the [[train]] keys "
+              "are validated, but no verb runs a train yet")
     for line in ready.notes:
         print(f"note: {line}")
     for line in ready.warnings:
@@ -281,6 +284,10 @@ def _raw_case(path):
     from simulator.case.load import load_case
 
     case = load_case(path)               # validate the base case first: every problem at once
+    if case.train:
+        from simulator.errors import CaseError
+
+        raise CaseError(f"{path}: train: a reactor train ([[train]]) cannot be swept or sampled yet.")
     return case.raw, str(Path(path).resolve().parent)
 
 

@@ -28,7 +28,7 @@ NAN = float("nan")
 
 KEYS = {
     "": {"title", "source", "description", "thermo", "reactions", "feed", "tube", "bed", "heat",
-         "pressure_drop", "design", "solver", "assumptions", "uncertainty"},
+         "pressure_drop", "design", "solver", "assumptions", "uncertainty", "train"},
     "thermo": {"species_file", "equation_of_state", "custom", "critical", "density", "density_at",
                "expansion_coefficient"},
     "thermo.custom.*": {"molar_mass", "cp", "enthalpy_of_formation", "standard_entropy",
@@ -254,6 +254,10 @@ def load_case_dict(raw, source_path="", case_dir=None):
     if shape is not None:
         raise CaseError(f"{where}{shape}.")
     case_dir = case_dir or (str(Path(source_path).parent) if source_path else ".")
+    if "train" in raw:                   # several beds in series: simulator.case.train
+        from simulator.case.train import load_train_case
+
+        return load_train_case(raw, source_path, case_dir, load_case_dict)
     ck = _Checker(where)
     ck.keys(raw, KEYS[""], "")
 

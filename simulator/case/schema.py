@@ -90,6 +90,7 @@ class Feed:
     mole_fractions: tuple[tuple[str, float], ...]
     flow_kind: Literal["molar_flow", "mass_flow", "volumetric_flow"]
     flow_value: float                # [mol/s] | [kg/s] | [m^3/s] at feed T and P, whole reactor
+    inlet_flows: tuple = ()          # [mol/s] whole reactor, in Case.species order: exact inlet of a train bed
 
 
 @dataclass(frozen=True)
@@ -185,3 +186,39 @@ class Case:
     species: tuple[str, ...] = ()        # every species of the model, in a fixed order
     raw: dict = field(default_factory=dict, compare=False, repr=False)  # the case as written
     source: str = ""                     # source key of published data, if any
+    train: tuple = ()                    # TrainBed entries of a reactor train (see simulator.case.train)
+
+
+InterstageKind = Literal["cool-to", "heat-to", "quench"]
+
+
+@dataclass(frozen=True)
+class QuenchStream:
+    """A quench stream of its own, mixed in at the bed outlet pressure."""
+
+    temperature: float                           # [K]
+    molar_flow: float                            # [mol/s] whole reactor
+    mole_fractions: tuple[tuple[str, float], ...]
+
+
+@dataclass(frozen=True)
+class Interstage:
+    """What happens between a bed and the next one (``[[train.after]]``).
+
+    ``cool-to`` / ``heat-to``: the gas leaves at ``temperature``, flows and pressure unchanged.
+    ``quench``: ``share`` of the fresh feed (bypassing the upstream beds, at ``temperature`` or
+    the feed temperature), or ``stream``, mixed in adiabatically.
+    """
+
+    kind: InterstageKind
+    temperature: float = NAN                     # [K] target, or quench temperature
+    share: float = NAN                           # [-] share of the fresh feed (quench)
+    stream: QuenchStream | None = None
+
+
+@dataclass(frozen=True)
+class TrainBed:
+    """One bed of a reactor train: its own case (tube, bed, heat, pressure drop) and what follows it."""
+
+    case: Case
+    after: Interstage | None = None

@@ -93,6 +93,8 @@ def build_model(case, species=None, constant_moles=False):
         F_total = float(feed_molar_flow(case, species))
         x0 = np.array([dict(case.feed.mole_fractions).get(s, 0.0) for s in names])
         F0 = x0 * F_total / tube.count
+        if case.feed.inlet_flows:        # a train bed: the upstream outlet, passed exactly
+            F0 = np.array(case.feed.inlet_flows, dtype=float) / tube.count
         G = float(np.float64(F0 @ species.molar_mass) / area) if area > 0 else math.inf
     _check_magnitudes(case, area, F_total, G)
 

@@ -407,6 +407,11 @@ def simulate(case, model=None, length=None):
     the initial-value run (:mod:`simulator.solve.counter_current`): every steady state is in
     ``extra["steady_states"]`` and the result describes the one a start-up from a cold medium reaches.
     """
+    if case.train:
+        from simulator.errors import CaseError
+
+        raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is validated but not yet run by "
+                        "any verb; run each bed as a case of its own.")
     with np.errstate(all="ignore"):
         if case.heat.exchange and arrangement_of(case.heat).boundary_value:
             from simulator.solve.counter_current import simulate_counter_current

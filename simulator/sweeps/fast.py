@@ -111,6 +111,8 @@ def unsupported_reason(paths, model=None):
     if len(set(paths)) != len(paths):
         return "a path is given twice"
     case = model.case if model is not None else None
+    if case is not None and case.train:
+        return "train: a reactor train is not run by the compiled batch integrator"
     if case is not None and case.heat.exchange and case.heat.arrangement == "counter-current":
         return ('heat.medium.arrangement = "counter-current": a two-point boundary-value problem, solved per '
                 "case by shooting (not by the compiled batch integrator)")
