@@ -30,13 +30,13 @@ def _with(case, length=None, count=None):
     return dataclasses.replace(case, tube=tube)
 
 
-def _evaluate(case, kind):
-    """Run one candidate and judge it against the requirements.
+def _evaluate(case, kind, result=None):
+    """Run one candidate (or judge its given ``result``) against the requirements.
 
     For a length found by (a) the tube ends at the target, so pressure drop and hot spot count up
     to there; for a count found by (b) the tube keeps the case's length, so they count over all of it.
     """
-    result = simulate(case)
+    result = simulate(case) if result is None else result
     d = result.design
     hot = result.hot_spot
     whole_tube = kind != "length for the given count"     # the tube keeps its length: judge all of it
@@ -135,7 +135,8 @@ def _length_by_resolving(case):
         return {"feasible": False, "binding_constraint": binding(cand) or "target_conversion",
                 "note": "no feasible length with this tube count: " + found["note"], "design": None,
                 "candidates": [cand]}
-    cand = _evaluate(_with(case, length=found["length_m"]), "design at the length found")
+    # the root search already solved the tube of that length: judge its result, do not solve it again
+    cand = _evaluate(_with(case, length=found["length_m"]), "design at the length found", found["result"])
     cand["solves"] = found["solves"]
     failing = binding(cand)
     note = found["note"]

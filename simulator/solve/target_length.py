@@ -82,9 +82,12 @@ def length_by_resolving(case, model_builder=None):
                 return out
         if lo == 0.0:   # bracket below the case's length: shrink until the outlet misses the target
             lo = hi / 4.0
-            while residual(lo) >= 0.0 and lo > hi * 1e-6:
+            while residual(lo) >= 0.0 and lo > L0 * 1e-6:
                 hi, lo = lo, lo / 4.0
-        length = brentq(residual, lo, hi, xtol=RELATIVE_LENGTH_TOLERANCE * hi, rtol=1e-12, maxiter=MAX_SOLVES)
+        if residual(lo) >= 0.0:     # met within a millionth of the case's length: that is the answer
+            length = lo
+        else:
+            length = brentq(residual, lo, hi, xtol=RELATIVE_LENGTH_TOLERANCE * hi, rtol=1e-12, maxiter=MAX_SOLVES)
     except _Failed as failure:
         out["note"] = (f"the tube of {failure.length:.6g} m could not be solved ({failure.result.termination})")
         out["solves"] = len(cache)
