@@ -34,7 +34,10 @@ def _graetz_exact(Bi, zeta, terms=200):
 
 @pytest.mark.parametrize("Bi,zeta,tol", [(1.0, 0.1, 1e-4), (5.0, 0.3, 1e-4), (20.0, 0.3, 1e-4)])
 def test_graetz_series_within_collocation_error(Bi, zeta, tol):
-    # analytic series; tolerance from the collocation error with N = 5 (1e-5 to 3e-7 at these zeta)
+    # Source: the series solution of cooling of a cylinder with a wall (Robin) condition, theta = sum
+    # 2 Bi J0(beta r)/((beta^2 + Bi^2) J0(beta)) exp(-beta^2 zeta), beta J1(beta) = Bi J0(beta)
+    # (H.S. Carslaw, J.C. Jaeger, Conduction of Heat in Solids, 2nd ed., 1959, ch. 7; from memory);
+    # tolerance from the collocation error with N = 5 (1e-5 to 3e-7 at these zeta)
     N = 5
     x, A, B, w = collocation(N)
 
@@ -52,7 +55,8 @@ def test_graetz_series_within_collocation_error(Bi, zeta, tol):
 
 
 def test_lumped_coefficient_series():
-    # analytic: 1/U = 1/h_w + R/(4 lambda) + 1/U_o
+    # series resistances 1/U = 1/h_w + R/(4 lambda) + 1/U_o (G.F. Froment, K.B. Bischoff, Chemical Reactor
+    # Analysis and Design, 2nd ed., Wiley, 1990, ch. 11; from memory)
     assert lumped_coefficient(100.0, 1.0, 0.04, outer=100.0) == pytest.approx(1 / (0.01 + 0.01 + 0.01))
 
 
