@@ -41,11 +41,11 @@ def ideal_case(case):
         case,
         heat=dataclasses.replace(case.heat, mode="isothermal", overall_coefficient=0.0, arrangement="",
                                  medium_temperature=NAN,
-                                 medium_mass_flow=NAN, medium_cp=NAN),
+                                 medium_mass_flow=NAN, medium_cp=NAN, coefficient=None),
         pressure_drop=dataclasses.replace(case.pressure_drop, model="none"),
         thermo=case.thermo if case.thermo.equation_of_state == "liquid"   # a liquid stays a liquid
         else dataclasses.replace(case.thermo, equation_of_state="ideal-gas"),
-        design=dataclasses.replace(case.design, temperature_limit=NAN),
+        design=dataclasses.replace(case.design, temperature_limit=NAN, wall_temperature_limit=NAN),
     )
 
 

@@ -60,6 +60,20 @@ REFERENCES = {
     "spearman1904": "C. Spearman, \"The proof and measurement of association between two things,\" Am. J. "
                     "Psychol., vol. 15, no. 1, pp. 72-101, 1904.",
     "levenspiel1999": "O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5.",
+    "gnielinski1976": "V. Gnielinski, \"New equations for heat and mass transfer in turbulent pipe and channel "
+                      "flow,\" Int. Chem. Eng., vol. 16, no. 2, pp. 359-368, 1976; with the friction factor of "
+                      "G.K. Filonenko, Teploenergetika, vol. 1, no. 4, pp. 40-44, 1954.",
+    "gnielinski2013": "V. Gnielinski, \"On heat transfer in tubes,\" Int. J. Heat Mass Transfer, vol. 63, "
+                      "pp. 134-140, 2013 (the laminar-turbulent blend).",
+    "dittus_boelter1930": "F.W. Dittus, L.M.K. Boelter, \"Heat transfer in automobile radiators of the tubular "
+                          "type,\" Univ. Calif. Publ. Eng., vol. 2, pp. 443-461, 1930.",
+    "leva1949": "M. Leva, \"Packed-tube heat transfer,\" Ind. Eng. Chem., vol. 41, p. 1206, 1949 (heating), and "
+                "M. Leva et al., \"Cooling of gases through packed tubes,\" Ind. Eng. Chem., 1950 (cooling); "
+                "constants as usually quoted.",
+    "zukauskas1972": "A. Zukauskas, \"Heat transfer from tubes in crossflow,\" Adv. Heat Transfer, vol. 8, "
+                     "pp. 93-160, 1972.",
+    "mathur1967": "S. Mathur, P.K. Tondon, S.C. Saxena, \"Thermal conductivity of binary, ternary and "
+                  "quaternary mixtures of rare gases,\" Mol. Phys., vol. 12, pp. 569-579, 1967.",
 }
 
 

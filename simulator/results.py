@@ -136,6 +136,40 @@ class Result:
             "references": list(self.references),
             "versions": self.versions,
             **self._steady_states_block(),
+            **self._wall_block(),
+        }
+
+    def _wall_block(self):
+        """``max_wall_temperature_K`` and ``wall`` (heat exchange only): U along the tube, where it came from,
+        the hottest tube wall (null where a typed U leaves it unresolved; then its bound) and the largest flux."""
+        wall = self.extra.get("wall")
+        if not self.case.heat.exchange or not wall:
+            return {}
+        from simulator.model.heat.coefficient import describe, hottest_wall
+
+        T, z, resolved = hottest_wall(wall, self.z)
+        U = wall["overall_coefficient_W_per_m2K"]
+        flux = wall["wall_heat_flux_W_per_m2"]
+        finite_U = U[np.isfinite(U)]
+        heat = self.case.heat
+        source = (describe(self.case) if heat.coefficient is not None else
+                  "given heat flux (no U)" if heat.profile_quantity == "heat_flux" else
+                  "typed heat.overall_coefficient (constant)")
+        limit = self.case.design.wall_temperature_limit
+        return {
+            "max_wall_temperature_K": _num(T) if resolved else None,
+            "wall": {
+                "coefficient_source": source,
+                "overall_coefficient_W_per_m2K": None if not finite_U.size else {
+                    "inlet": _num(U[0]), "outlet": _num(U[-1]), "min": _num(finite_U.min()),
+                    "max": _num(finite_U.max())},
+                "max_wall_temperature_K": _num(T) if resolved else None,
+                "max_wall_temperature_position_m": _num(z) if resolved else None,
+                "max_wall_temperature_bound_K": None if resolved else _num(T),
+                "wall_temperature_basis": wall["basis"],
+                "max_heat_flux_W_per_m2": _num(flux[np.nanargmax(np.abs(flux))]) if np.any(np.isfinite(flux)) else None,
+                "wall_temperature_limit_K": _num(limit),
+            },
         }
 
     def _steady_states_block(self):
@@ -170,6 +204,11 @@ class Result:
         header += [f"molar_flow_{s}_mol_per_s" for s in self.species]
         header += [f"mole_fraction_{s}" for s in self.species]
         cooled = self.case.heat.exchange
+        wall = self.extra.get("wall") if cooled else None
+        if wall:
+            from simulator.model.heat.coefficient import WALL_COLUMNS
+
+            header += list(WALL_COLUMNS)
         X = self.conversion
         x = self.mole_fractions
         rows = []
@@ -177,5 +216,7 @@ class Result:
             row = [self.z[k], self.T[k], self.P[k], self.Tc[k] if cooled else float("nan"), self.Z[k], X[k],
                    self.Q[k]]
             row += list(self.F[k]) + list(x[k])
+            if wall:
+                row += [wall[c][k] for c in WALL_COLUMNS]
             rows.append(row)
         return header, rows

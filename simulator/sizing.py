@@ -8,9 +8,12 @@
     doubling and then bisection on whole numbers.
 
 Requirements honoured: the target conversion, ``design.max_pressure_drop`` (over
-the length used), ``design.temperature_limit`` (hot spot below it) and that the tube
+the length used), ``design.temperature_limit`` (hot spot below it),
+``design.wall_temperature_limit`` (the hottest tube wall below it, where given) and that the tube
 passes the feed at all (pressure above 1 % of the feed pressure to its end). The
-requirement that decides the answer is named as the binding constraint.
+requirement that decides the answer is named as the binding constraint. With
+``[heat.coefficient]`` U follows the flow per tube: every candidate count is built anew, so its
+inside coefficient is that of its own mass velocity.
 """
 import dataclasses
 import math
@@ -55,6 +58,7 @@ def _evaluate(case, kind, result=None):
     end = result.case.tube.length if whole_tube or not d["reached"] else d["length_m"]
     stop_T = result.events.get("temperature_limit", {}).get("position_m")
     stop_P = result.events.get("pressure_floor", {}).get("position_m")
+    stop_W = result.events.get("wall_temperature_limit", {}).get("position_m")
     checks = {
         "target_conversion": bool(d["reached"]),
         "max_pressure_drop": math.isnan(limits.max_pressure_drop) or dp <= limits.max_pressure_drop,
@@ -62,6 +66,8 @@ def _evaluate(case, kind, result=None):
                               (T_max < limits.temperature_limit and (stop_T is None or stop_T > end))),
         "tube_carries_feed": stop_P is None or stop_P > end,
     }
+    if not math.isnan(limits.wall_temperature_limit):     # the run stops where the wall exceeds it
+        checks["wall_temperature_limit"] = stop_W is None or stop_W > end
     if result.status == "failed":
         checks["solver"] = False
     return {
@@ -72,7 +78,8 @@ def _evaluate(case, kind, result=None):
     }
 
 
-PRIORITY = ("temperature_limit", "tube_carries_feed", "max_pressure_drop", "target_conversion", "solver")
+PRIORITY = ("temperature_limit", "wall_temperature_limit", "tube_carries_feed", "max_pressure_drop", "target_conversion",
+            "solver")
 
 
 def binding(cand):
@@ -314,7 +321,9 @@ def size(case):
             "max_pressure_drop_Pa": None if math.isnan(case.design.max_pressure_drop)
             else case.design.max_pressure_drop,
             "temperature_limit_K": None if math.isnan(case.design.temperature_limit)
-            else case.design.temperature_limit},
+            else case.design.temperature_limit,
+            "wall_temperature_limit_K": None if math.isnan(case.design.wall_temperature_limit)
+            else case.design.wall_temperature_limit},
         "length_for_given_count": dict({k: v for k, v in a.items() if k != "candidates"},
                                        given={"tube_count": case.tube.count}),
         "count_for_given_length": dict({k: v for k, v in b.items() if k != "candidates"},

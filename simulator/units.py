@@ -62,6 +62,9 @@ DIMENSIONS = {
     "viscosity": "[mass] / [length] / [time]",
     "heat_transfer_coefficient": "[mass] / [time] ** 3 / [temperature]",
     "temperature_difference": "[temperature]",
+    "thermal_conductivity": "[mass] * [length] / [time] ** 3 / [temperature]",
+    "fouling_resistance": "[time] ** 3 * [temperature] / [mass]",
+    "velocity": "[length] / [time]",
 }
 
 #: SI unit text of each named dimension (for messages).
@@ -70,7 +73,8 @@ SI_UNITS = {
     "volumetric_flow": "m^3/s", "molar_mass": "kg/mol", "molar_heat_capacity": "J/(mol*K)",
     "specific_heat_capacity": "J/(kg*K)", "molar_energy": "J/mol", "molar_entropy": "J/(mol*K)",
     "density": "kg/m^3", "viscosity": "Pa*s", "heat_transfer_coefficient": "W/(m^2*K)",
-    "temperature_difference": "K",
+    "temperature_difference": "K", "thermal_conductivity": "W/(m*K)", "fouling_resistance": "m^2*K/W",
+    "velocity": "m/s",
 }
 
 _EXAMPLES = {
@@ -89,6 +93,9 @@ _EXAMPLES = {
     "viscosity": '"2.2e-5 Pa*s"',
     "heat_transfer_coefficient": '"180 W/(m^2*K)"',
     "temperature_difference": '"10 K" or "10 delta_degC"',
+    "thermal_conductivity": '"16 W/(m*K)"',
+    "fouling_resistance": '"2e-4 m^2*K/W"',
+    "velocity": '"0.8 m/s"',
 }
 
 

@@ -1,6 +1,8 @@
 """Tube-side and packed-bed coefficient correlations of simulator.model.heat_coefficient."""
 import math
 
+import numpy as np
+
 import pytest
 
 from simulator.model import heat_coefficient as hc
@@ -52,7 +54,8 @@ def test_transition_blend_is_continuous_at_both_ends(method):
 
 def test_overall_coefficient_is_the_series_sum_and_tends_to_h_i():
     # analytic: 1/U = 1/h_i + R_fi + R_wall + R_out; with the other resistances zero U = h_i
-    fp = [0.0] * hc.N_COEF
+    fp = np.zeros(hc.N_COEF)
+    fp[hc.C_FACTOR] = 1.0
     assert hc.overall_coefficient(120.0, fp, 0) == pytest.approx(120.0, rel=1e-14)
     Di, Do, kw, ho = 0.0254, 0.0296, 16.0, 2000.0
     fp[hc.C_RWALL] = Di * math.log(Do / Di) / (2 * kw)

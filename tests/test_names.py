@@ -24,6 +24,8 @@ ROOT = Path(__file__).resolve().parents[1]
 BEFORE = json.loads((ROOT / "tests" / "data" / "demo_numbers_before_renaming.json").read_text())
 #: output keys renamed by this change: old -> new
 RENAMED_OUTPUT = {"coolant_temperature_K": "medium_temperature_K", "rise_above_coolant_K": "rise_above_medium_K"}
+#: output keys added since (new outputs, not renamings): prefixes of the flattened keys
+ADDED_OUTPUT = (".wall.", ".max_wall_temperature_K")
 
 
 def _flat(value, prefix=""):
@@ -49,8 +51,12 @@ def test_demo_case_gives_the_numbers_of_the_old_names(name):
         summary.pop(key)
     before = _flat(BEFORE[name]["summary"])
     after = _flat(json.loads(json.dumps(summary, default=str)))
-    assert set(before) == set(after)
-    different = {k: (before[k], after[k]) for k in before if not _same(before[k], after[k])}
+    assert set(before) == {k for k in after if not k.startswith(ADDED_OUTPUT)}
+    # closure residuals are round-off of the solver (1e-9 and below): compared to 1e-10 absolute, since a
+    # rebuilt compiled kernel may order its floating-point operations differently
+    different = {k: (before[k], after[k]) for k in before
+                 if not (_same(before[k], after[k]) or (k.startswith(".closure.") and before[k] is not None
+                                                        and abs(before[k] - after[k]) < 1e-10))}
     assert not different
     report = check_assumptions(case)
     assert _same(report["design_change_percent"], BEFORE[name]["assumptions"]["design_change_percent"]) or \
@@ -58,7 +64,11 @@ def test_demo_case_gives_the_numbers_of_the_old_names(name):
     for assumption, old in BEFORE[name]["assumptions"]["per_assumption"].items():
         new = report["assumptions"][assumption]
         for key in ("value", "threshold", "design_change_percent", "verdict"):
-            assert _same(new[key], old[key]) or new[key] == old[key], (assumption, key)
+            # a design change in per cent is a difference of two solved lengths: round-off of 1e-11 in a
+            # length is 1e-9 in it, so it is compared to 1e-8 (percentage points)
+            near = key == "design_change_percent" and isinstance(old[key], float) and isinstance(new[key], float) \
+                and abs(new[key] - old[key]) < 1e-8
+            assert _same(new[key], old[key]) or new[key] == old[key] or near, (assumption, key)
 
 
 HYDROGENATION = (ROOT / "cases" / "hydrogenation_cooled_packed_bed.toml").read_text(encoding="utf-8")

@@ -17,6 +17,7 @@ RANGES = {
     "feed.temperature": (150.0, 3500.0),                    # [K]
     "heat.medium.temperature": (150.0, 3500.0),             # [K]
     "design.temperature_limit": (150.0, 3500.0),            # [K]
+    "design.wall_temperature_limit": (150.0, 3500.0),       # [K]
     "feed.pressure": (1.0e3, 1.0e8),                        # [Pa]: 1 kPa to 1000 bar
     "design.max_pressure_drop": (1.0, 1.0e8),               # [Pa]
     "tube.length": (0.01, 1.0e4),                           # [m] (long tubes: approach to equilibrium)
@@ -26,6 +27,20 @@ RANGES = {
     "bed.particle_diameter": (1.0e-4, 0.1),                 # [m]
     "bed.bulk_density": (50.0, 6000.0),                     # [kg/m^3]
     "heat.overall_coefficient": (0.0, 1.0e4),               # [W/(m^2*K)]
+    "heat.coefficient.wall_thickness": (0.0, 0.05),         # [m]
+    "heat.coefficient.wall_conductivity": (0.01, 1000.0),   # [W/(m*K)] (refractory to copper)
+    "heat.coefficient.outside": (1.0, 1.0e6),               # [W/(m^2*K)] (still gas to condensing steam)
+    "heat.coefficient.inside": (1.0, 1.0e5),                # [W/(m^2*K)] a typed inside coefficient
+    "heat.coefficient.fouling_inside": (0.0, 0.1),          # [m^2*K/W]
+    "heat.coefficient.fouling_outside": (0.0, 0.1),         # [m^2*K/W]
+    "heat.coefficient.conductivity": (1.0e-3, 100.0),       # [W/(m*K)] process fluid
+    "heat.coefficient.shell.velocity": (1.0e-3, 100.0),     # [m/s]
+    "heat.coefficient.shell.transverse_pitch": (1.0e-3, 1.0),    # [m]
+    "heat.coefficient.shell.longitudinal_pitch": (1.0e-3, 1.0),  # [m]
+    "heat.coefficient.shell.density": (0.01, 2.0e4),        # [kg/m^3] (a gas to a molten metal)
+    "heat.coefficient.shell.viscosity": (1.0e-6, 10.0),     # [Pa*s]
+    "heat.coefficient.shell.conductivity": (1.0e-3, 1000.0),  # [W/(m*K)]
+    "heat.coefficient.shell.cp": (100.0, 1.0e5),            # [J/(kg*K)]
     "heat.medium.mass_flow": (1.0e-6, 1.0e6),               # [kg/s] whole bundle
     "heat.medium.cp": (100.0, 1.0e5),                       # [J/(kg*K)]
     "pressure_drop.viscosity": (1.0e-7, 1.0e-2),            # [Pa*s]

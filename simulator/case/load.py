@@ -40,11 +40,12 @@ KEYS = {
     "feed": {"temperature", "pressure", "molar_flow", "mass_flow", "volumetric_flow", "mole_fractions"},
     "tube": {"length", "inner_diameter", "count", "roughness"},
     "bed": {"particle_diameter", "void_fraction", "bulk_density"},
-    "heat": {"mode", "overall_coefficient", "medium"},
+    "heat": {"mode", "overall_coefficient", "coefficient", "medium"},
     "heat.medium": {"arrangement", "temperature", "mass_flow", "cp", "profile"},
     "heat.medium.profile.*": {"position", "temperature", "heat_flux"},
     "pressure_drop": {"model", "viscosity", "friction_correlation"},
-    "design": {"key_species", "target_conversion", "temperature_limit", "max_pressure_drop"},
+    "design": {"key_species", "target_conversion", "temperature_limit", "max_pressure_drop",
+               "wall_temperature_limit"},
     "solver": {"rtol", "atol_scale", "output_points", "max_step"},
     "assumptions": {"isothermal", "isobaric", "ideal_gas", "constant_moles"},
     "uncertainty.*": {"parameter", "distribution", "std", "factor", "low", "high"},
@@ -283,6 +284,17 @@ def load_case_dict(raw, source_path="", case_dir=None):
             and design.temperature_limit <= feed.temperature:
         ck.fail("design.temperature_limit", f" = {raw['design'].get('temperature_limit')!r}: must be above the feed "
                 f"temperature ({feed.temperature:.6g} K).")
+    from simulator.case.heat_coefficient_keys import check_shell_geometry
+
+    check_shell_geometry(ck, heat.coefficient, tube.inner_diameter)
+    if not math.isnan(design.wall_temperature_limit):
+        if heat.mode != "exchange":
+            ck.fail("design.wall_temperature_limit", f" = {raw['design'].get('wall_temperature_limit')!r}: the tube "
+                    f"exchanges no heat (heat.mode = {heat.mode!r}), so its wall is at the gas temperature; use "
+                    "design.temperature_limit.")
+        elif heat.profile_quantity == "heat_flux" and heat.coefficient is None:
+            ck.fail("design.wall_temperature_limit", ": a given heat_flux profile needs [heat.coefficient] (at least "
+                    "inside) to know the wall temperature T + q''/h_i; give it or remove the limit.")
     _check_sizes(ck, raw, feed, tube, bed, solver)
     if any(r.rate_basis == "catalyst-mass" for r in reactions) and bed is None:
         ck.fail("reactions", ': rate_basis = "catalyst-mass" needs a [bed] table with bulk_density.')
@@ -588,6 +600,7 @@ def _heat(ck, raw):
     ck.keys(h, KEYS["heat"], "heat")
     mode = ck.choice(h, "mode", "heat", HEAT_MODES)
     U = Tm = mass_flow = cp = NAN
+    coefficient = None
     arrangement = ""
     given = ("", (), ())
     if mode == "exchange":
@@ -595,7 +608,9 @@ def _heat(ck, raw):
         ck.keys(m, KEYS["heat.medium"], "heat.medium")
         arrangement = ck.choice(m, "arrangement", "heat.medium", ARRANGEMENTS, default="uniform") or "uniform"
         given = _wall_profile(ck, h, m, raw) if arrangement == "wall-profile" else given
-        if given[0] != "heat_flux":
+        if "coefficient" in h:
+            coefficient = _heat_coefficient(ck, h, raw, given_flux=given[0] == "heat_flux")
+        elif given[0] != "heat_flux":
             U = ck.quantity(h, "overall_coefficient", "heat_transfer_coefficient", "heat", minimum=0.0,
                             strict=False)
         if arrangement != "wall-profile":
@@ -609,13 +624,23 @@ def _heat(ck, raw):
                 ck.fail("heat.medium", f": {', '.join(extra)} given but arrangement = \"uniform\" ignores them; "
                         'remove them or write arrangement = "co-current" or "counter-current".')
     elif mode in ("isothermal", "adiabatic"):
-        extra = [k for k in ("overall_coefficient", "medium") if k in h]
+        extra = [k for k in ("overall_coefficient", "coefficient", "medium") if k in h]
         if extra:
             ck.fail("heat", f": {', '.join(extra)} given but mode = {mode!r} ignores them; remove them or "
                     'write mode = "exchange".')
     return Heat(mode=mode or "isothermal", overall_coefficient=0.0 if math.isnan(U) else U,
                 arrangement=arrangement, medium_temperature=Tm, medium_mass_flow=mass_flow, medium_cp=cp,
-                profile_quantity=given[0], profile_position=given[1], profile_value=given[2])
+                profile_quantity=given[0], profile_position=given[1], profile_value=given[2],
+                coefficient=coefficient)
+
+
+def _heat_coefficient(ck, h, raw, given_flux):
+    """``[heat.coefficient]`` (U from correlations), see :mod:`simulator.case.heat_coefficient_keys`."""
+    from simulator.case.heat_coefficient_keys import read_heat_coefficient
+
+    thermo = raw.get("thermo") if isinstance(raw.get("thermo"), dict) else {}
+    return read_heat_coefficient(ck, h, packed=isinstance(raw.get("bed"), dict),
+                                 liquid=thermo.get("equation_of_state") == "liquid", given_flux=given_flux)
 
 
 def _wall_profile(ck, h, m, raw):
@@ -652,7 +677,9 @@ def _design(ck, raw):
                   temperature_limit=ck.quantity(d, "temperature_limit", "temperature", "design", required=False,
                                                 minimum=0.0),
                   max_pressure_drop=ck.quantity(d, "max_pressure_drop", "pressure", "design", required=False,
-                                                minimum=0.0))
+                                                minimum=0.0),
+                  wall_temperature_limit=ck.quantity(d, "wall_temperature_limit", "temperature", "design",
+                                                     required=False, minimum=0.0))
 
 
 def _solver(ck, raw):

@@ -7,8 +7,9 @@ Nomenclature (units): lengths [m], temperatures [K], pressures [Pa, absolute],
 molar flows [mol/s], mass flows [kg/s], molar masses [kg/mol], heat capacities
 [J/(mol*K)], enthalpies [J/mol], heat-transfer coefficients [W/(m^2*K)].
 """
+import math
 from dataclasses import dataclass, field
-from typing import Literal
+from typing import Literal, Optional
 
 EquationOfState = Literal["ideal-gas", "peng-robinson", "liquid"]
 HeatMode = Literal["isothermal", "adiabatic", "exchange"]
@@ -109,6 +110,41 @@ class Bed:
 
 
 @dataclass(frozen=True)
+class ShellSide:
+    """``[heat.coefficient.shell]``: a tube bank in crossflow for ``outside = "zukauskas-1972"`` (SI)."""
+
+    velocity: float                      # [m/s] medium velocity approaching the bank
+    transverse_pitch: float              # [m] S_T
+    longitudinal_pitch: float            # [m] S_L
+    layout: str                          # "inline" | "staggered"
+    rows: int                            # [-] rows the flow crosses
+    density: float                       # [kg/m^3] medium
+    viscosity: float                     # [Pa*s] medium
+    conductivity: float                  # [W/(m*K)] medium
+    cp: float                            # [J/(kg*K)] medium
+
+
+@dataclass(frozen=True)
+class HeatCoefficient:
+    """``[heat.coefficient]``: U from correlations instead of a typed ``overall_coefficient``.
+
+    U is referred to the tube's inner wall (series sum, :mod:`simulator.model.heat_coefficient`);
+    only the inside (process-side) coefficient varies along the tube.
+    """
+
+    inside: str                          # "auto" | a correlation name | "value"
+    inside_value: float = NAN            # [W/(m^2*K)] when inside = "value" (written as a quantity)
+    wall_thickness: float = 0.0          # [m]; 0: wall resistance neglected
+    wall_conductivity: float = NAN       # [W/(m*K)]
+    outside: float = math.inf            # h_o on the outer area [W/(m^2*K)]; inf: no outside resistance
+    fouling_inside: float = 0.0          # [m^2*K/W]
+    fouling_outside: float = 0.0         # [m^2*K/W]
+    conductivity: float = NAN            # process-fluid thermal conductivity [W/(m*K)]; NaN: Cantera's fits
+    factor: float = 1.0                  # multiplier on U (not a case key: sensitivity screening varies it) [-]
+    shell: Optional[ShellSide] = None    # outside = "zukauskas-1972": the bank, h_o computed when built
+
+
+@dataclass(frozen=True)
 class Heat:
     """Heat exchange through the wall.
 
@@ -129,6 +165,7 @@ class Heat:
     profile_quantity: str = ""           # "temperature" | "heat_flux" (wall-profile), else ""
     profile_position: tuple = ()         # [m] rows of [[heat.medium.profile]], 0 first, increasing
     profile_value: tuple = ()            # [K] wall/flue-gas temperature or [W/m^2] inner-wall heat flux
+    coefficient: Optional[HeatCoefficient] = None   # [heat.coefficient]; None: the typed overall_coefficient
 
     @property
     def exchange(self):
@@ -149,6 +186,7 @@ class Design:
     target_conversion: float = NAN       # [-]
     temperature_limit: float = NAN       # [K]
     max_pressure_drop: float = NAN       # [Pa]
+    wall_temperature_limit: float = NAN  # [K] hottest tube wall allowed (alloy limit)
 
 
 @dataclass(frozen=True)

@@ -158,21 +158,34 @@ def build_model(case, species=None, constant_moles=False):
     note = ""
     fp[K.F_MUT0] = case.feed.temperature
     fp[K.F_MU0] = 1.0
-    if case.pressure_drop.model != "none" and liquid and np.isnan(case.pressure_drop.viscosity):
+    correlated = heat.coefficient is not None and heat.coefficient.inside != "value"
+    needs_viscosity = case.pressure_drop.model != "none" or correlated
+    if needs_viscosity and liquid and np.isnan(case.pressure_drop.viscosity):
         raise CaseError(f"{case.source_path}: pressure_drop.viscosity: missing; a liquid feed needs its viscosity "
-                        "(e.g. \"1.2e-3 Pa*s\"): there are no transport data for liquids")
-    if case.pressure_drop.model != "none":
+                        "(e.g. \"1.2e-3 Pa*s\") for its friction and heat-transfer coefficient: there are no "
+                        "transport data for liquids")
+    if needs_viscosity:
         note = _viscosity_law(case, species, fp, x0)
+    coefficient_at = 0
+    if heat.coefficient is not None:      # U(z) from correlations: its block goes at the end of fp
+        from simulator.model.heat.coefficient import coefficient_block
+
+        coefficient_at = fp.size
+        fp = np.concatenate([fp, coefficient_block(case, species)])
 
     ip = np.array([n, m, exchange.kernel_code, DP_CODES[case.pressure_drop.model],
                    FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax,
-                   1 if constant_moles else 0, K.PHASE_LIQUID if liquid else K.PHASE_GAS], dtype=np.int64)
+                   1 if constant_moles else 0, K.PHASE_LIQUID if liquid else K.PHASE_GAS, coefficient_at],
+                  dtype=np.int64)
     # the medium at z = 0; a counter-current medium's is the unknown of the shooting method
     # (simulator.solve.counter_current sets it), its inlet temperature at z = L stands in here
     Tc0 = exchange.medium_at_inlet(heat)
     if math.isnan(Tc0):
         Tc0 = heat.medium_temperature if heat.exchange else case.feed.temperature
     y0 = np.concatenate([F0, [case.feed.temperature, case.feed.pressure, Tc0, 0.0]])
+    if coefficient_at:    # a representative U (at the feed) for the estimates that need one number (NTU)
+        fp[K.F_U] = K.wall_coefficient(y0[n], y0[n + 1], Tc0, F0, ip, fp, np.ascontiguousarray(species.nasa7),
+                                     species.molar_mass)[0]
     Ft0 = F0.sum()
     cp_scale = Ft0 * 30.0 * max(case.feed.temperature, 300.0)
     scale = np.concatenate([np.full(n, Ft0), [case.feed.temperature, case.feed.pressure, max(Tc0, 1.0),

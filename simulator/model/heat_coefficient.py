@@ -13,8 +13,9 @@ temperature and composition). The functions are plain math written for numba (th
 wrap them like :mod:`simulator.model.pressure_drop`); the constant resistances are meant to be
 packed once in a block of ``fp`` at an offset ``o`` (:data:`C_*` below).
 
-Status: the correlations and the series sum are here and tested; they are NOT yet wired into
-the case file (``[heat.coefficient]``), the builder or the kernel, so no run uses them yet.
+The case file's ``[heat.coefficient]`` (:mod:`simulator.case.heat_coefficient_keys`) is packed by
+:mod:`simulator.model.heat.coefficient`; the kernel calls :func:`inside_coefficient` and
+:func:`overall_coefficient` at every right-hand-side evaluation.
 
 Inside coefficients (method codes ``fp[o + C_METHOD]``):
 
@@ -34,19 +35,24 @@ mixture-averaged value from Cantera's pure-species fits, :func:`gas_conductivity
 """
 import math
 
+from numba import njit
+
 # inside-coefficient methods fp[o + C_METHOD]
 INSIDE_VALUE, EMPTY_GNIELINSKI, EMPTY_DITTUS_BOELTER, PACKED_LEVA_AUTO, PACKED_LEVA_1949, PACKED_LEVA_1950 = range(6)
 # conductivity modes fp[o + C_KMODE]
 CONDUCTIVITY_GIVEN, CONDUCTIVITY_FITS = range(2)
 # the coefficient block of fp, from an offset o (planned: a new fixed fp entry); the 5 n conductivity fits follow it
-(C_METHOD, C_HI, C_RWALL, C_ROUT, C_RFIN, C_KMODE, C_KGAS, C_DP) = range(8)
-N_COEF = 8
+(C_METHOD, C_HI, C_RWALL, C_ROUT, C_RFIN, C_KMODE, C_KGAS, C_DP, C_FACTOR) = range(9)
+N_COEF = 9
+#: fp[o + C_RWALL], C_ROUT and C_RFIN are resistances referred to the inner area, [m^2*K/W]:
+#: D_i ln(D_o/D_i)/(2 k_w); (D_i/D_o)(R_f,o + 1/h_o); R_f,i
 
 #: Reynolds numbers of the empty-tube regime guard [-]: laminar below, turbulent above the second
 RE_LAMINAR, RE_TURBULENT = 2300.0, 1.0e4
 NU_LAMINAR = 3.66     # fully developed laminar flow, constant wall temperature [-]
 
 
+@njit(cache=True)
 def filonenko_1954(Re):
     r"""Darcy friction factor of a smooth tube, turbulent flow, [-].
 
@@ -80,6 +86,7 @@ def filonenko_1954(Re):
     return (1.82 * math.log10(Re) - 1.64) ** -2
 
 
+@njit(cache=True)
 def gnielinski_1976(Re, Pr, fd):
     r"""Nusselt number of turbulent flow in a tube (Gnielinski), [-].
 
@@ -118,6 +125,7 @@ def gnielinski_1976(Re, Pr, fd):
     return f8 * (Re - 1000.0) * Pr / (1.0 + 12.7 * math.sqrt(f8) * (Pr ** (2.0 / 3.0) - 1.0))
 
 
+@njit(cache=True)
 def dittus_boelter_1930(Re, Pr, heating):
     r"""Nusselt number of turbulent flow in a tube (Dittus-Boelter), [-].
 
@@ -154,6 +162,7 @@ def dittus_boelter_1930(Re, Pr, heating):
     return 0.023 * Re ** 0.8 * Pr ** (0.4 if heating else 0.3)
 
 
+@njit(cache=True)
 def empty_tube_nusselt(Re, Pr, method, heating):
     r"""Nusselt number of an empty tube with the regime guard, [-].
 
@@ -204,6 +213,7 @@ def empty_tube_nusselt(Re, Pr, method, heating):
     return (1.0 - g) * NU_LAMINAR + g * Nu_t
 
 
+@njit(cache=True)
 def leva_1949_1950(Re_p, dp_over_dt, heating):
     r"""Bed-side Nusselt number h d_t / k of a packed tube (Leva 1949 heating, 1950 cooling), [-].
 
@@ -247,6 +257,7 @@ def leva_1949_1950(Re_p, dp_over_dt, heating):
     return 3.50 * Re_p ** 0.7 * math.exp(-4.6 * dp_over_dt)
 
 
+@njit(cache=True)
 def gas_conductivity(T, F, fp, o):
     r"""Thermal conductivity of the gas at the local temperature and composition, [W/(m*K)].
 
@@ -300,6 +311,7 @@ def gas_conductivity(T, F, fp, o):
     return 0.5 * (linear + 1.0 / harmonic)
 
 
+@njit(cache=True)
 def inside_coefficient(method, value, G, D, d_p, mu, cp, k, heating):
     r"""Inside (gas-side) coefficient h_i of one method, [W/(m^2*K)].
 
@@ -339,6 +351,7 @@ def inside_coefficient(method, value, G, D, d_p, mu, cp, k, heating):
     return leva_1949_1950(Re_p, d_p / D, heating) * k / D
 
 
+@njit(cache=True)
 def overall_coefficient(h_i, fp, o):
     r"""U on the inner area from h_i and the packed constant resistances, [W/(m^2*K)].
 
@@ -355,5 +368,9 @@ def overall_coefficient(h_i, fp, o):
     -------
     U : float
         Overall coefficient on the inner area, [W/(m^2*K)]
+
+    Notes
+    -----
+    ``fp[o + C_FACTOR]`` multiplies the series sum (1 in a case; the sensitivity screening varies it).
     """
-    return 1.0 / (1.0 / h_i + fp[o + C_RFIN] + fp[o + C_RWALL] + fp[o + C_ROUT])
+    return fp[o + C_FACTOR] / (1.0 / h_i + fp[o + C_RFIN] + fp[o + C_RWALL] + fp[o + C_ROUT])

@@ -35,6 +35,11 @@ per-species tail (offset ``F_VISC + 5 n + 2 n^2``, written by :func:`profile_tai
     fp[o + 2 .. o + 1 + k]    positions z_0 = 0 < z_1 < .. < z_(k-1) >= L, [m]
     fp[o + 2 + k .. o + 1 + 2k]  temperature [K] or heat flux [W/m^2] at each position
 
+U is ``fp[F_U]`` (typed) unless ``ip[I_COEF]`` points at a heat-coefficient block (``[heat.coefficient]``,
+packed by :mod:`simulator.model.heat.coefficient` at the end of ``fp``): U(z) is then the series sum of
+the local inside coefficient (from the local Re, Pr and conductivity) and the constant wall, outside
+and fouling resistances, :func:`wall_coefficient`.
+
 Here H = sum_i F_i h_i^ig(T) + F_T h^dep(T, P, y) is the enthalpy flow; the
 departure h^dep is zero for an ideal gas and from Peng-Robinson otherwise.
 """
@@ -43,6 +48,7 @@ import math
 import numpy as np
 from numba import njit
 
+from simulator.model import heat_coefficient as hc
 from simulator.model import liquid
 from simulator.model.pressure_drop import churchill_1977, blasius_1913, colebrook_1939, friction_laminar
 from simulator.thermo.nasa7 import cp_R, h_RT, s_R
@@ -57,7 +63,9 @@ _colebrook = njit(cache=True)(colebrook_1939)
 _laminar = njit(cache=True)(friction_laminar)
 
 # integer parameters ip[...]
-I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN, I_PHASE = range(9)
+I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN, I_PHASE, I_COEF = range(10)
+N_IP = 10
+# ip[I_COEF]: offset in fp of the heat-coefficient block (simulator.model.heat_coefficient), 0 for a typed U
 PHASE_GAS, PHASE_LIQUID = range(2)   # ip[I_PHASE]: the concentration closure (simulator.model.liquid)
 HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_UNIFORM, HEAT_FLOWING, HEAT_PROFILE = range(5)
 PROFILE_TEMPERATURE, PROFILE_HEAT_FLUX = 0, 1
@@ -467,6 +475,109 @@ def viscosity(T, F, fp):
     return mu
 
 
+@njit(cache=True)
+def wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw):
+    r"""Overall coefficient U and inside coefficient h_i at the local state, [W/(m^2*K)].
+
+    Parameters
+    ----------
+    T, P, Tc : float
+        Gas temperature [K], pressure [Pa] and the temperature on the far side of U [K]
+    F : ndarray
+        Molar flows, [mol/s]
+    ip, fp, nasa, mw : ndarray
+        Kernel parameters (``ip[I_COEF]`` > 0: the block offset), NASA-7 rows, molar masses [kg/mol]
+
+    Returns
+    -------
+    U : float
+        Overall coefficient on the inner area, [W/(m^2*K)]
+    h_i : float
+        Inside coefficient, [W/(m^2*K)]
+
+    Notes
+    -----
+    Re and Pr from the local viscosity (:func:`viscosity`), the ideal-gas heat capacity per mass
+    and the conductivity of the block (given, or Cantera's fits); the mass velocity is the
+    constant ``fp[F_G]``. The direction of the flux (Tc > T: the wall heats the gas) picks the
+    heating or cooling form where a correlation has both. A liquid has no ideal-gas cp here: its
+    heat capacity is still the species' cp rows, per mass.
+    """
+    o = ip[I_COEF]
+    n = F.shape[0]
+    cp = 0.0
+    mass = 0.0
+    for i in range(n):
+        Fi = max(F[i], 0.0)
+        cp += Fi * _cp_R(nasa[i], T) * R
+        mass += Fi * mw[i]
+    cp /= mass
+    k = hc.gas_conductivity(T, F, fp, o)
+    mu = viscosity(T, F, fp)
+    h_i = hc.inside_coefficient(int(fp[o + hc.C_METHOD]), fp[o + hc.C_HI], fp[F_G], fp[F_DIAM], fp[o + hc.C_DP],
+                                mu, cp, k, Tc > T)
+    return hc.overall_coefficient(h_i, fp, o), h_i
+
+
+@njit(cache=True)
+def wall_columns(zs, ys, ip, fp, nasa, mw):
+    r"""Wall quantities at every output point, (N, 5): U, h_i, q'', T_wall_inner, T_wall_outer.
+
+    Parameters
+    ----------
+    zs : ndarray
+        Positions, [m]
+    ys : ndarray
+        (N, n_state) states, laid out as in the module header (molar flows, T, P, Tc, Q)
+    ip, fp, nasa, mw : ndarray
+        Kernel parameters
+
+    Returns
+    -------
+    out : ndarray
+        Columns U [W/(m^2*K)], h_i [W/(m^2*K)] (NaN for a typed U), heat flux q'' into the gas per
+        inner-wall area [W/m^2] (positive: the wall heats the gas), inner and outer tube-wall
+        temperatures [K] (NaN where U is typed: the split of the resistance is unknown)
+
+    Notes
+    -----
+    q'' = U (T_far - T) with T_far the medium (or given wall) temperature; the inner wall sits one
+    inside resistance from the gas, T_wi = T + q''/h_i, the outer wall one wall resistance further,
+    T_wo = T_wi + q'' D_i ln(D_o/D_i)/(2 k_w) (the resistances are referred to the inner area).
+    A given heat flux fixes q''; its wall temperatures need ``[heat.coefficient]`` for h_i.
+    """
+    N = zs.shape[0]
+    n = ip[I_N]
+    out = np.full((N, 5), np.nan)
+    heat = ip[I_HEAT]
+    if heat != HEAT_UNIFORM and heat != HEAT_FLOWING and heat != HEAT_PROFILE:
+        return out
+    D = fp[F_DIAM]
+    for k in range(N):
+        y = ys[k]
+        F = y[:n]
+        T = y[n]
+        P = max(y[n + 1], fp[F_PMIN])
+        Tc = y[n + 2]
+        given_flux = False
+        if heat == HEAT_PROFILE:
+            po = profile_tail(n)
+            Tc = given_profile(zs[k], fp, po)[0]
+            given_flux = fp[po] == PROFILE_HEAT_FLUX
+        U = fp[F_U]
+        h_i = np.nan
+        if ip[I_COEF] != 0:
+            U, h_i = wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw)
+        q = Tc if given_flux else U * (Tc - T)
+        out[k, 0] = np.nan if given_flux else U
+        out[k, 1] = h_i
+        out[k, 2] = q
+        if ip[I_COEF] != 0:
+            out[k, 3] = T + q / h_i
+            out[k, 4] = out[k, 3] + q * fp[ip[I_COEF] + hc.C_RWALL]
+    return out
+
+
 @njit(cache=True, inline="always")
 def profile_tail(n):
     """Offset of the given-profile table in ``fp`` for n species (see the module header)."""
@@ -533,7 +644,8 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
         Tc, dTc = given_profile(z, fp, o)
         given_flux = fp[o] == PROFILE_HEAT_FLUX
     if heat == HEAT_UNIFORM or heat == HEAT_FLOWING or (heat == HEAT_PROFILE and not given_flux):
-        qw = fp[F_U] * math.pi * fp[F_DIAM] * (Tc - T)
+        U = fp[F_U] if ip[I_COEF] == 0 else wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw)[0]
+        qw = U * math.pi * fp[F_DIAM] * (Tc - T)
     elif given_flux:
         qw = Tc * math.pi * fp[F_DIAM]
         dTc = 0.0
@@ -767,6 +879,7 @@ def _refresh_cache():
     import os
 
     from simulator import units
+    from simulator.model import heat_coefficient as hc
     from simulator.model import liquid, pressure_drop
     from simulator.model.jit_cache import refresh_if_sources_changed
     from simulator.thermo import nasa7
@@ -774,7 +887,7 @@ def _refresh_cache():
     compiled = sorted(_dispatchers(globals()), key=lambda d: d.py_func.__module__ != __name__)  # own first
     if compiled and not os.environ.get("NUMBA_DISABLE_JIT"):
         refresh_if_sources_changed("kernel", compiled, [__file__, nasa7.__file__, pressure_drop.__file__, liquid.__file__,
-                                                         units.__file__])
+                                                         units.__file__, hc.__file__])
 
 
 _refresh_cache()

@@ -25,7 +25,8 @@ import sys
 from simulator.model import kernel as compiled
 
 #: The dispatchers a single run needs; the cache is warm when all of them are.
-_RUN_FUNCTIONS = ("rhs_odeint", "derivative_profile", "compressibility_profile", "pr_departure", "pr_phase_profile")
+_RUN_FUNCTIONS = ("rhs_odeint", "derivative_profile", "compressibility_profile", "pr_departure", "pr_phase_profile",
+                  "wall_columns")
 
 
 def mode():

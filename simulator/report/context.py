@@ -212,6 +212,7 @@ def build_context(case, result, assumptions=None, screening=None, command_line="
     dict
         The context; every number rounded and printed with its unit, [-]
     """
+    from simulator.report.context_wall import wall_block
     from simulator.report.context_wall_profile import wall_profile_block
     from simulator.report.validation import published_checks
 
@@ -232,6 +233,7 @@ def build_context(case, result, assumptions=None, screening=None, command_line="
         "inputs": inputs,
         "profiles": _profiles(case, result),
         "wall_profile": wall_profile_block(case, result),
+        "wall": wall_block(case, result),
         "assumptions": _assumptions_block(case, assumptions),
         "screening": _screening_block(case, result, screening, screening_reason),
         "numerics": numerics,

@@ -303,6 +303,8 @@ def _screening_block(case, result, screening, reason):
     ]
     if screening.get("medium_basis", {}).get("note"):
         paragraphs.append("Medium: " + screening["medium_basis"]["note"] + ".")
+    if screening.get("coefficient_basis"):
+        paragraphs.append("Wall coefficient: " + screening["coefficient_basis"] + ".")
     groups = {"caption": f"Dimensionless groups ({g.get('reaction', '')})", "columns": ["Group", "Value", "Meaning"],
               "rows": [["γ", fmt(g.get("gamma"), 4), "Arrhenius number E/(R·Tc)"],
                        ["ΔT_ad [K]", fixed(g.get("adiabatic_rise_K")), "adiabatic temperature rise of the "

@@ -52,6 +52,10 @@ printed as they are (round them first). "text" below means ``str``.
 ``wall_profile`` : mapping, optional
     ``available`` (bool; a given wall profile only), ``paragraphs`` (text), ``rows``
     (``{position, value}``), ``unit`` (text), ``plots`` (list of *plot*).
+``wall`` : mapping, optional
+    ``available`` (bool; heat exchange only), ``paragraphs`` (text: where U comes from, U range,
+    hottest wall or why it is not resolved, the wall limit), ``plots`` (list of *plot*: U and h_i,
+    wall temperatures, wall flux).
 ``assumptions``, ``screening``, ``numerics`` : *block* each
     ``numerics`` has one more key, ``warnings``: list of text (may be empty).
 ``validation`` : list of ``{key, source, compared, count}``

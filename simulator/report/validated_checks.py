@@ -78,21 +78,54 @@ CHECKS = ({'key': 'levenspiel1999',
  {'key': 'ht_library',
   'citation': 'C. Bell et al., ht (Chemical Engineering Design Library), version 1.2.0',
   'compared': "Tube-side Nusselt numbers of Gnielinski and Dittus-Boelter against ht's documented examples "
-              '(Re 1e5, Pr 1.2) and against ht over the turbulent range',
+              '(Re 1e5, Pr 1.2) and against ht over the turbulent range; the inside coefficient along a '
+              "heated empty tube against ht's Gnielinski with Cantera's viscosity, conductivity and heat "
+              'capacity at each point',
   'where': 'ht.conv_internal.turbulent_Gnielinski docstring example',
   'test': 'tests/test_heat_coefficient.py::test_gnielinski_against_ht_docstring_example'},
  {'key': 'ht_library',
   'citation': 'C. Bell et al., ht (Chemical Engineering Design Library), version 1.2.0',
   'compared': "Tube-side Nusselt numbers of Gnielinski and Dittus-Boelter against ht's documented examples "
-              '(Re 1e5, Pr 1.2) and against ht over the turbulent range',
+              '(Re 1e5, Pr 1.2) and against ht over the turbulent range; the inside coefficient along a '
+              "heated empty tube against ht's Gnielinski with Cantera's viscosity, conductivity and heat "
+              'capacity at each point',
   'where': 'ht.conv_internal.turbulent_Dittus_Boelter docstring examples',
   'test': 'tests/test_heat_coefficient.py::test_dittus_boelter_against_ht_docstring_examples'},
  {'key': 'ht_library',
   'citation': 'C. Bell et al., ht (Chemical Engineering Design Library), version 1.2.0',
   'compared': "Tube-side Nusselt numbers of Gnielinski and Dittus-Boelter against ht's documented examples "
-              '(Re 1e5, Pr 1.2) and against ht over the turbulent range',
+              '(Re 1e5, Pr 1.2) and against ht over the turbulent range; the inside coefficient along a '
+              "heated empty tube against ht's Gnielinski with Cantera's viscosity, conductivity and heat "
+              'capacity at each point',
   'where': 'ht.conv_internal.turbulent_Gnielinski over the turbulent range',
   'test': 'tests/test_heat_coefficient.py::test_guarded_empty_tube_nusselt_equals_ht_in_the_turbulent_range'},
+ {'key': 'froment1967',
+  'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
+              '18-27, 1967',
+  'compared': 'Hot-spot temperature of the published o-xylene oxidation tube for inlet partial pressures of '
+              '0.011-0.0175 atm, against an independent reproduction of the published model and data (not '
+              'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
+              'where the published profiles run away; the dimensionless groups of the published tube; the '
+              "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
+              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
+  'where': 'overall U of the o-xylene tube, 0.096 kJ/(m^2 s K) (plausibility, +-20 %)',
+  'test': 'tests/test_heat_coefficient_wiring.py::test_oxylene_tube_u_from_leva_is_within_the_spread_of_the_published_u'},
+ {'key': 'ht_library',
+  'citation': 'C. Bell et al., ht (Chemical Engineering Design Library), version 1.2.0',
+  'compared': "Tube-side Nusselt numbers of Gnielinski and Dittus-Boelter against ht's documented examples "
+              '(Re 1e5, Pr 1.2) and against ht over the turbulent range; the inside coefficient along a '
+              "heated empty tube against ht's Gnielinski with Cantera's viscosity, conductivity and heat "
+              'capacity at each point',
+  'where': 'ht.conv_internal.turbulent_Gnielinski with Cantera transport at each point',
+  'test': 'tests/test_heat_coefficient_wiring.py::test_empty_tube_inside_coefficient_follows_gnielinski_with_cantera_properties'},
+ {'key': 'ht_library',
+  'citation': 'C. Bell et al., ht (Chemical Engineering Design Library), version 1.2.0',
+  'compared': "Tube-side Nusselt numbers of Gnielinski and Dittus-Boelter against ht's documented examples "
+              '(Re 1e5, Pr 1.2) and against ht over the turbulent range; the inside coefficient along a '
+              "heated empty tube against ht's Gnielinski with Cantera's viscosity, conductivity and heat "
+              'capacity at each point',
+  'where': 'ht.conv_tube_bank.Nu_Zukauskas_Bejan (tube bank in crossflow)',
+  'test': 'tests/test_heat_coefficient_wiring.py::test_zukauskas_bank_against_ht_and_a_shell_side_case'},
  {'key': 'levenspiel1999',
   'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
   'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
@@ -118,7 +151,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Hot-spot temperature of the published o-xylene oxidation tube for inlet partial pressures of '
               '0.011-0.0175 atm, against an independent reproduction of the published model and data (not '
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
-              'where the published profiles run away; the dimensionless groups of the published tube',
+              'where the published profiles run away; the dimensionless groups of the published tube; the '
+              "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
+              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
   'where': 'published model and data; check values from an independent reproduction (not printed values), p0 '
            '= 0.011-0.0175 atm',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_against_published_case'},
@@ -128,7 +163,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Hot-spot temperature of the published o-xylene oxidation tube for inlet partial pressures of '
               '0.011-0.0175 atm, against an independent reproduction of the published model and data (not '
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
-              'where the published profiles run away; the dimensionless groups of the published tube',
+              'where the published profiles run away; the dimensionless groups of the published tube; the '
+              "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
+              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
   'where': "runaway between p0 = 0.0175 and 0.018 atm (independent reproduction; the source's figure shows "
            'it just above 0.018 atm, from memory)',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_jumps_between_0_0175_and_0_018_atm'},
@@ -556,7 +593,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Hot-spot temperature of the published o-xylene oxidation tube for inlet partial pressures of '
               '0.011-0.0175 atm, against an independent reproduction of the published model and data (not '
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
-              'where the published profiles run away; the dimensionless groups of the published tube',
+              'where the published profiles run away; the dimensionless groups of the published tube; the '
+              "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
+              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
   'where': 'groups derived from the published tube data (independent derivation)',
   'test': 'tests/test_screening.py::test_groups_of_the_published_tube'},
  {'key': 'froment1967',
@@ -565,7 +604,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Hot-spot temperature of the published o-xylene oxidation tube for inlet partial pressures of '
               '0.011-0.0175 atm, against an independent reproduction of the published model and data (not '
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
-              'where the published profiles run away; the dimensionless groups of the published tube',
+              'where the published profiles run away; the dimensionless groups of the published tube; the '
+              "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
+              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
   'where': "runaway appears just above p0 = 0.018 atm in the source's profile figure (from memory): +-3 %",
   'test': 'tests/test_screening.py::test_critical_feed_fraction_near_the_remembered_published_value'},
  {'key': 'barkelew1959',

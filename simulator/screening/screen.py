@@ -115,12 +115,18 @@ class _Variants:
         if name == "medium_temperature":
             return c.heat.medium_temperature
         if name == "overall_coefficient":
-            return c.heat.overall_coefficient
+            return representative_coefficient(c, self.species)
         if name == "mass_flow":
             return 1.0          # a factor on the feed flow
         raise KeyError(name)
 
     def variant(self, name, value):
+        if name == "overall_coefficient" and self.case.heat.coefficient is not None:
+            # U from correlations: scale U(z) so that its value at the feed is ``value``
+            c = self.case
+            factor = c.heat.coefficient.factor * value / self.base["overall_coefficient"]
+            coefficient = dataclasses.replace(c.heat.coefficient, factor=factor)
+            return dataclasses.replace(c, heat=dataclasses.replace(c.heat, coefficient=coefficient))
         return self.variant_of(self.case, name, value)
 
     @staticmethod
@@ -312,7 +318,7 @@ def dimensionless_groups(model, j, rates, dH):
     dT_ad = -dH[j] * F0[key] / nu_key / cp_flow if nu_key > 0 else math.nan
     B = gamma * dT_ad / Tc
     L, D = case.tube.length, case.tube.inner_diameter
-    St = case.heat.overall_coefficient * math.pi * D * L / cp_flow
+    St = model.args[1][K.F_U] * math.pi * D * L / cp_flow    # the typed U, or U(z) at the feed
     Da = rates[j] * nu_key * model.area * L / F0[key]
     N = St / Da if Da > 0 else None
     psi = B / N if N is not None and N > 0 and math.isfinite(B) else None
@@ -468,6 +474,7 @@ def screen(case, n_coarse=21):
         "hot_spot": hot,
         "medium_temperature_K": Tc,
         "medium_basis": medium_basis(case, base_result, scale),
+        "coefficient_basis": coefficient_basis(case, base_result, v.base["overall_coefficient"]),
         "temperature_scale_K": scale,
         "groups": groups,
         "criteria": crit,
@@ -489,6 +496,27 @@ def screen(case, n_coarse=21):
                        "adler_enig1964", "morbidelli_varma1988"],
         "_log": v.log,
     })
+
+
+def representative_coefficient(case, species=None):
+    """U the criteria take, [W/(m^2*K)]: the typed one, or U(z) from [heat.coefficient] at the feed state."""
+    if case.heat.coefficient is None:
+        return case.heat.overall_coefficient
+    return float(build_model(case, species=species).args[1][K.F_U])
+
+
+def coefficient_basis(case, result, U0):
+    """Note on the U the criteria take when U follows the flow ([heat.coefficient]); "" for a typed U.
+
+    ``U0`` is that U, at the feed state, [W/(m^2*K)].
+    """
+    if case.heat.coefficient is None:
+        return ""
+    s = result.summary().get("wall", {}).get("overall_coefficient_W_per_m2K") or {}
+    span = (f"; along the tube it runs from {s['min']:.4g} to {s['max']:.4g} W/(m^2*K)"
+            if s.get("min") is not None else "")
+    return (f"U comes from correlations ([heat.coefficient]); the criteria take its value at the feed, "
+            f"{U0:.4g} W/(m^2*K){span}; the full-model boundaries use U(z)")
 
 
 def medium_basis(case, result, scale):
@@ -881,6 +909,8 @@ def format_screening(report):
              f"Da {g['Da']:.3g}, N {f(g['N'], '.3g')}, psi {f(g['psi'], '.3g')}"]
     if report.get("medium_basis", {}).get("note"):
         lines.append(f"  medium: {report['medium_basis']['note']}")
+    if report.get("coefficient_basis"):
+        lines.append(f"  wall coefficient: {report['coefficient_basis']}")
     lines.append("  criteria:")
     for name, c in report["criteria"].items():
         extra = ""

@@ -33,6 +33,7 @@ from simulator.model import kernel as model_kernel
 from simulator.model import kernels
 from simulator.model.build import build_model, check_profile_covers
 from simulator.model.heat import arrangement_of
+from simulator.model.heat.coefficient import hottest_wall, validity_warnings, wall_along
 from simulator.results import Result
 from simulator.units import R as R_GAS
 from simulator.solve.checks import (closure, closure_failure, closure_warnings, compressibility_profile,
@@ -514,6 +515,11 @@ def _simulate(case, model=None, length=None):
             crossing = _limit_crossing(tube, zs, ys, dTdz, n, T_lim)
             if crossing is not None:
                 stops.append((*crossing, "temperature_limit"))
+    W_lim = case.design.wall_temperature_limit
+    if not math.isnan(W_lim) and case.heat.exchange:
+        crossing = _wall_limit_crossing(tube, model, zs, ys, W_lim)
+        if crossing is not None:
+            stops.append((*crossing, "wall_temperature_limit"))
     p_floor = PRESSURE_FLOOR * case.feed.pressure
     k = _first_crossing(p_floor - ys[:, n + 1])
     if k is not None:
@@ -530,10 +536,16 @@ def _simulate(case, model=None, length=None):
             if name == "temperature_limit":
                 termination = (f"temperature limit {T_lim:.6g} K exceeded at z = {z_e:.6g} m "
                                f"(design.temperature_limit); the run was stopped there")
+            elif name == "wall_temperature_limit":
+                wall_T = _hottest_wall_at(model, tube, z_e, y_e)
+                termination = (f"tube-wall temperature limit {W_lim:.6g} K exceeded at z = {z_e:.6g} m "
+                               f"(design.wall_temperature_limit; {wall_T[1]}); the run was stopped there")
             else:
                 termination = (f"pressure fell below {100 * PRESSURE_FLOOR:g} % of the feed pressure at "
                                f"z = {z_e:.6g} m: this tube cannot pass the feed at this pressure drop")
         events[name] = {"position_m": float(z_e), "temperature_K": float(y_e[n]), "pressure_Pa": float(y_e[n + 1])}
+        if name == "wall_temperature_limit":
+            events[name]["wall_temperature_K"] = float(_hottest_wall_at(model, tube, z_e, y_e)[0])
 
     # target conversion (recorded, the run continues)
     key = model.key_index
@@ -571,6 +583,9 @@ def _simulate(case, model=None, length=None):
         defect = phase or closure_failure(clos)
         if defect:
             status, termination = "failed", f"run failed: {defect}"
+    wall = _guarded(lambda: wall_along(model, zs, ys, tube.K), None) if case.heat.exchange else None
+    if wall is not None and case.heat.coefficient is not None:
+        notes += _guarded(lambda: validity_warnings(model, zs, ys), [])
     notes += closure_warnings(clos)
     notes += range_warnings(model, ys)
     notes += model_warnings(model, ys, zs, hot)
@@ -589,8 +604,31 @@ def _simulate(case, model=None, length=None):
         references=tuple(references_used(case, model, np.any(np.isfinite(Z)))), events=events, adiabatic_temperature_rise=rise,
         extra={"adiabatic": rise_info, "viscosity": model.viscosity_note,
                "timing": {"main_integration_s": main_time, "total_s": elapsed},
-               "critical_sources": dict(zip(model.species.names, model.critical_sources))},
+               "critical_sources": dict(zip(model.species.names, model.critical_sources)), "wall": wall},
     )
+
+
+def _hottest_wall_at(model, tube, z, y):
+    """(hottest tube-wall temperature [K], how it was found) at one state (see :func:`wall_along`)."""
+    w = wall_along(model, np.array([z]), y[None, :], tube.K)
+    T, _, resolved = hottest_wall(w, np.array([z]))
+    return T, ("computed wall temperature" if resolved else "bound: the hotter of gas and far side, typed U")
+
+
+def _wall_limit_crossing(tube, model, zs, ys, limit):
+    """(z, y) where the hottest tube wall first exceeds ``limit``, refined; None if it never does."""
+    def excess(z, y):
+        return _hottest_wall_at(model, tube, z, y)[0] - limit
+
+    w = _guarded(lambda: wall_along(model, zs, ys, tube.K), None)
+    if w is None:
+        return None
+    T = np.fmax(w["wall_temperature_inner_K"], w["wall_temperature_outer_K"])
+    T = np.where(np.isfinite(T), T, w["bound"])
+    if T[0] >= limit:
+        return 0.0, ys[0]
+    k = _first_crossing(T - limit)
+    return None if k is None else _refine(tube, zs, ys, k, excess)
 
 
 def _slopes(tube, zs, ys, n):
@@ -841,4 +879,15 @@ def references_used(case, model, compressibility_computed=False):
                     [case.pressure_drop.friction_correlation])
     if case.thermo.equation_of_state == "peng-robinson" or compressibility_computed:
         keys.append("peng_robinson1976")
-    return keys
+    c = case.heat.coefficient if case.heat.exchange else None
+    if c is not None and c.inside != "value":
+        keys += {"gnielinski-1976": ["gnielinski1976", "gnielinski2013"], "dittus-boelter-1930":
+                 ["dittus_boelter1930", "gnielinski2013"]}.get(c.inside, ["leva1949"] if case.bed is not None
+                                                               else ["gnielinski1976", "gnielinski2013"])
+        if math.isnan(case.pressure_drop.viscosity):
+            keys.append("wilke1950")
+        if math.isnan(c.conductivity):
+            keys.append("mathur1967")
+    if c is not None and c.shell is not None:
+        keys.append("zukauskas1972")
+    return list(dict.fromkeys(keys))

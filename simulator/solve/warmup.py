@@ -47,6 +47,7 @@ def main():
                                   np.ascontiguousarray(np.clip(ys[:, :n], 0, None)), model.args[9])
         K.pr_phase_profile(np.ascontiguousarray(ys[:, n]), np.ascontiguousarray(ys[:, n + 1]),
                            np.ascontiguousarray(np.clip(ys[:, :n], 0, None)), model.args[9])
+        K.wall_columns(zs, np.ascontiguousarray(ys), *model.args[:4])
     return 0
 
 

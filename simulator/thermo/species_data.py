@@ -262,23 +262,40 @@ def viscosity_fits(species, thermo):
 
     Raises ThermoError when a species has no transport data (custom species never do).
     """
+    return _transport_fits(species, thermo, "viscosity", 'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"')
+
+
+def conductivity_fits(species, thermo):
+    """Cantera's pure-species thermal-conductivity fits of the model's species, (n, 5), [-].
+
+    Row i holds a_i0..a_i4 of k_i = sqrt(T) sum_c a_ic (ln T)^c [W/(m*K)] (Cantera's
+    ``get_thermal_conductivity_polynomial``); the mixture rule is in
+    :func:`simulator.model.heat_coefficient.gas_conductivity`.
+
+    Raises ThermoError when a species has no transport data (custom species never do).
+    """
+    return _transport_fits(species, thermo, "thermal_conductivity",
+                           'give heat.coefficient.conductivity, e.g. "0.05 W/(m*K)"')
+
+
+def _transport_fits(species, thermo, quantity, remedy):
+    """Rows of Cantera's ``get_<quantity>_polynomial`` for every species, cached per species set."""
     missing = [n for n in species.names if n in {c.name for c in thermo.custom}]
     if missing:
-        raise ThermoError(f"no transport data for custom species {', '.join(missing)}; "
-                          'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"')
-    key = (species.species_path, tuple(species.names))
+        raise ThermoError(f"no transport data for custom species {', '.join(missing)}; {remedy}")
+    key = (species.species_path, tuple(species.names), quantity)
     if key not in _VISCOSITY_FITS:
         import cantera as ct
 
         gas = _transport_solution(species, thermo)
+        fit = getattr(gas, f"get_{quantity}_polynomial")
         try:
-            rows = [np.asarray(gas.get_viscosity_polynomial(gas.species_index(n)), dtype=float)
-                    for n in species.names]
+            rows = [np.asarray(fit(gas.species_index(n)), dtype=float) for n in species.names]
         except ct.CanteraError as err:
-            raise ThermoError(f"viscosity from transport data failed: {cantera_message(err)}; "
-                              'give pressure_drop.viscosity, e.g. "2.2e-5 Pa*s"') from err
+            raise ThermoError(f"{quantity.replace('_', ' ')} from transport data failed: {cantera_message(err)}; "
+                              f"{remedy}") from err
         if any(len(r) != 5 for r in rows):
-            raise ThermoError("Cantera's viscosity fits are not of degree 4; give pressure_drop.viscosity")
+            raise ThermoError(f"Cantera's {quantity.replace('_', ' ')} fits are not of degree 4; {remedy}")
         if len(_VISCOSITY_FITS) > 32:
             _VISCOSITY_FITS.clear()
         _VISCOSITY_FITS[key] = np.array(rows)
