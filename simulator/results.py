@@ -131,13 +131,33 @@ class Result:
             "max_compressibility_deviation": _num(np.nanmax(np.abs(self.Z - 1.0)))
             if np.any(np.isfinite(self.Z)) else None,
             "events": self.events,
-            "warnings": list(self.warnings),
+            "warnings": self._warnings_with_network(),
             "solver": self.solver_stats,
             "references": list(self.references),
             "versions": self.versions,
             **self._steady_states_block(),
             **self._wall_block(),
+            **self._network_block(),
         }
+
+    def _warnings_with_network(self):
+        from simulator.network_results import network_of
+
+        notes = [n for n in network_of(self)["notes"] if n and n not in self.warnings]
+        return list(self.warnings) + notes
+
+    def _network_block(self):
+        """``products`` ([design] products) and ``equilibrium`` (a reversible reaction of the key species),
+        see :mod:`simulator.network_results`; their notes join the warnings."""
+        from simulator.network_results import network_of
+
+        net = network_of(self)
+        out = {}
+        if self.case.design.products:
+            out["products"] = {k: {q: _num(v) for q, v in d.items()} for k, d in net["products"].items()}
+        if net["equilibrium"] is not None:
+            out["equilibrium"] = {k: (_num(v) if isinstance(v, float) else v) for k, v in net["equilibrium"].items()}
+        return out
 
     def _wall_block(self):
         """``max_wall_temperature_K`` and ``wall`` (heat exchange only): U along the tube, where it came from,
@@ -209,6 +229,12 @@ class Result:
             from simulator.model.heat.coefficient import WALL_COLUMNS
 
             header += list(WALL_COLUMNS)
+        network = {}
+        if self.status != "failed":
+            from simulator.network_results import network_of
+
+            network = network_of(self)["columns"]
+            header += list(network)
         X = self.conversion
         x = self.mole_fractions
         rows = []
@@ -218,5 +244,6 @@ class Result:
             row += list(self.F[k]) + list(x[k])
             if wall:
                 row += [wall[c][k] for c in WALL_COLUMNS]
+            row += [network[c][k] for c in network]
             rows.append(row)
         return header, rows

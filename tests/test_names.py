@@ -25,7 +25,7 @@ BEFORE = json.loads((ROOT / "tests" / "data" / "demo_numbers_before_renaming.jso
 #: output keys renamed by this change: old -> new
 RENAMED_OUTPUT = {"coolant_temperature_K": "medium_temperature_K", "rise_above_coolant_K": "rise_above_medium_K"}
 #: output keys added since (new outputs, not renamings): prefixes of the flattened keys
-ADDED_OUTPUT = (".wall.", ".max_wall_temperature_K")
+ADDED_OUTPUT = (".wall.", ".max_wall_temperature_K", ".equilibrium.", ".products.")
 
 
 def _flat(value, prefix=""):

@@ -45,7 +45,7 @@ KEYS = {
     "heat.medium.profile.*": {"position", "temperature", "heat_flux"},
     "pressure_drop": {"model", "viscosity", "friction_correlation"},
     "design": {"key_species", "target_conversion", "temperature_limit", "max_pressure_drop",
-               "wall_temperature_limit"},
+               "wall_temperature_limit", "products"},
     "solver": {"rtol", "atol_scale", "output_points", "max_step"},
     "assumptions": {"isothermal", "isobaric", "ideal_gas", "constant_moles"},
     "uncertainty.*": {"parameter", "distribution", "std", "factor", "low", "high"},
@@ -300,6 +300,8 @@ def load_case_dict(raw, source_path="", case_dir=None):
         ck.fail("reactions", ': rate_basis = "catalyst-mass" needs a [bed] table with bulk_density.')
 
     liquid_problems(ck, thermo, reactions)
+    if design.key_species:
+        _check_products(ck, design, reactions)
     species = _species_order(feed, reactions)
     _check_species(ck, species, thermo, reactions, feed, design)
 
@@ -679,7 +681,31 @@ def _design(ck, raw):
                   max_pressure_drop=ck.quantity(d, "max_pressure_drop", "pressure", "design", required=False,
                                                 minimum=0.0),
                   wall_temperature_limit=ck.quantity(d, "wall_temperature_limit", "temperature", "design",
-                                                     required=False, minimum=0.0))
+                                                     required=False, minimum=0.0),
+                  products=_products(ck, d))
+
+
+def _products(ck, d):
+    """``design.products``: a list of species names (checked against the reactions later)."""
+    value = d.get("products", [])
+    if not isinstance(value, list) or not all(isinstance(v, str) and v.strip() for v in value):
+        ck.fail("design.products", f" = {value!r}: write a list of species names, e.g. [\"C2H4O\"].")
+        return ()
+    if len(set(value)) != len(value):
+        ck.fail("design.products", f" = {value!r}: a species is named twice.")
+    return tuple(value)
+
+
+def _check_products(ck, design, reactions):
+    """Each named product is formed from the key species along a chain of the reactions."""
+    from simulator.case.product_chain import product_scale
+
+    for p in design.products:
+        if p == design.key_species:
+            ck.fail("design.products", f": {p!r} is the key species; name the products whose yield on it you want.")
+        elif product_scale(reactions, design.key_species, p)[1] == ():
+            ck.fail("design.products", f": {p!r} is not formed from {design.key_species!r} by any chain of the "
+                    "reactions, so its yield on the key species is not defined.")
 
 
 def _solver(ck, raw):

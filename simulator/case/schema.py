@@ -187,6 +187,7 @@ class Design:
     temperature_limit: float = NAN       # [K]
     max_pressure_drop: float = NAN       # [Pa]
     wall_temperature_limit: float = NAN  # [K] hottest tube wall allowed (alloy limit)
+    products: tuple = ()                 # named products: yield and selectivity on the key species
 
 
 @dataclass(frozen=True)

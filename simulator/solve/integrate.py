@@ -604,7 +604,8 @@ def _simulate(case, model=None, length=None):
         references=tuple(references_used(case, model, np.any(np.isfinite(Z)))), events=events, adiabatic_temperature_rise=rise,
         extra={"adiabatic": rise_info, "viscosity": model.viscosity_note,
                "timing": {"main_integration_s": main_time, "total_s": elapsed},
-               "critical_sources": dict(zip(model.species.names, model.critical_sources)), "wall": wall},
+               "critical_sources": dict(zip(model.species.names, model.critical_sources)), "wall": wall,
+               "nasa": model.args[2]},
     )
 
 
