@@ -187,8 +187,10 @@ def _validate(args):
     print(f"{args.case}: valid ({len(case.species)} species, {_plural(len(case.reactions), 'reaction')}, "
           f"{_plural(case.tube.count, 'tube')}, heat mode {case.heat.mode}, pressure drop {case.pressure_drop.model})")
     if case.train:
-        print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); the [[train]] keys "
-              "are validated, but no verb runs a train yet")
+        from simulator.solve.train import TRAIN_REFUSALS
+
+        print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); `run` runs the "
+              f"train; not yet for a train: {', '.join(TRAIN_REFUSALS)}")
     for line in ready.notes:
         print(f"note: {line}")
     for line in ready.warnings:
@@ -202,6 +204,8 @@ def _run(args):
     from simulator.solve.integrate import simulate
 
     case = load_case(args.case)
+    if case.train:
+        return _run_train(case, args)
     result = simulate(case)
     write_run(result, args.out)
     print_summary(result)
@@ -211,14 +215,36 @@ def _run(args):
     return 0
 
 
+def _run_train(case, args):
+    from simulator.solve.train import simulate_train
+    from simulator.train_output import print_train_summary, write_train_run
+
+    train = simulate_train(case)
+    write_train_run(train, args.out)
+    print_train_summary(train)
+    if train.status == "failed":
+        print(f"error: {train.termination}", file=sys.stderr)
+        return 1
+    return 0
+
+
+def _refusing_train(path, verb):
+    """The validated case; a one-line refusal if it is a train and ``verb`` does not run trains."""
+    from simulator.case.load import load_case
+    from simulator.solve.train import refuse_train
+
+    case = load_case(path)
+    refuse_train(case, verb)
+    return case
+
+
 def _assumptions(args):
     from pathlib import Path
 
     from simulator.assumptions import check_assumptions, format_table
-    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json
 
-    report = check_assumptions(load_case(args.case))
+    report = check_assumptions(_refusing_train(args.case, "assumptions"))
     atomic_write_json(Path(args.out) / "assumptions.json", report)
     print(format_table(report))
     return 0
@@ -227,11 +253,10 @@ def _assumptions(args):
 def _size(args):
     from pathlib import Path
 
-    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json
     from simulator.sizing import format_sizing, size
 
-    report = size(load_case(args.case))
+    report = size(_refusing_train(args.case, "size"))
     atomic_write_json(Path(args.out) / "sizing.json", report)
     print(format_sizing(report))
     return 0
@@ -242,11 +267,10 @@ def _screen(args):
     import io
     from pathlib import Path
 
-    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json, atomic_write_text
     from simulator.screening.screen import format_screening, screen, screening_json, sensitivity_rows
 
-    report = screen(load_case(args.case))
+    report = screen(_refusing_train(args.case, "screen"))
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\n")
     writer.writerow(["parameter", "value_SI", "hot_spot_temperature_K", "normalized_sensitivity"])
@@ -262,6 +286,7 @@ def _screen(args):
 def _report(args):
     from simulator.report.build import write_design_report
 
+    _refusing_train(args.case, "report")
     paths = write_design_report(args.case, args.out, pdf=not args.no_pdf, command_line=_command_line())
     for kind, path in paths.items():
         if path:
@@ -278,16 +303,15 @@ def _command_line():
     return "tubesim " + " ".join(shlex.quote(a) for a in _ARGV)
 
 
-def _raw_case(path):
+def _raw_case(path, verb):
     from pathlib import Path
 
     from simulator.case.load import load_case
 
-    case = load_case(path)               # validate the base case first: every problem at once
-    if case.train:
-        from simulator.errors import CaseError
+    from simulator.solve.train import refuse_train
 
-        raise CaseError(f"{path}: train: a reactor train ([[train]]) cannot be swept or sampled yet.")
+    case = load_case(path)               # validate the base case first: every problem at once
+    refuse_train(case, verb)
     return case.raw, str(Path(path).resolve().parent)
 
 
@@ -326,7 +350,7 @@ def _sweep(args):
     from simulator.sweeps.execute import run_grid_sweep
     from simulator.sweeps.validity import check_vary_values
 
-    raw, case_dir = _raw_case(args.case)
+    raw, case_dir = _raw_case(args.case, "sweep")
     check_vary_values(raw, case_dir, specs, args.case)
     engine, model = choose_engine(args.engine, load_case(args.case), [spec.path for spec in specs], args.scheduler)
     try:
@@ -359,7 +383,7 @@ def _uncertainty(args):
     from simulator.sweeps.execute import run_uncertainty
     from simulator.sweeps.sampling import format_summary
 
-    raw, case_dir = _raw_case(args.case)
+    raw, case_dir = _raw_case(args.case, "uncertainty")
     if not raw.get("uncertainty"):
         from simulator.errors import CaseError
 

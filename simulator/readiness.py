@@ -56,6 +56,12 @@ def check_case(path):
         lines = err.problems if isinstance(err, CaseError) else [str(err)]
         problems += [f"{line.rstrip('.')} (needed by {TUBE_VERBS[0]} and every verb that runs the tube: "
                      f"{', '.join(TUBE_VERBS[1:])})." for line in lines]
+    for k, entry in enumerate(case.train[1:], start=2):     # later beds of a train (bed 1 is built above)
+        try:
+            build_model(entry.case)
+        except SimulatorError as err:
+            lines = err.problems if isinstance(err, CaseError) else [str(err)]
+            problems += [f"train[{k}]: {line.rstrip('.')} (needed by run)." for line in lines]
     entries = case.raw.get("uncertainty")
     if entries is not None:
         try:
