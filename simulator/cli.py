@@ -225,6 +225,12 @@ def _run_train(case, args):
     if train.status == "failed":
         print(f"error: {train.termination}", file=sys.stderr)
         return 1
+    from pathlib import Path
+
+    from simulator.fileio import atomic_write_text
+    from simulator.report.train_plots import train_path_svg
+
+    print(f"figure: {atomic_write_text(Path(args.out) / 'train_path.svg', train_path_svg(train))}")
     return 0
 
 
