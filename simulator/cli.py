@@ -190,7 +190,8 @@ def _validate(args):
         from simulator.solve.train import TRAIN_REFUSALS
 
         print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); `run` runs the "
-              f"train; not yet for a train: {', '.join(TRAIN_REFUSALS)}")
+              f"train, `assumptions` and `screen` check it bed by bed; not yet for a train: "
+              f"{', '.join(TRAIN_REFUSALS)}")
     for line in ready.notes:
         print(f"note: {line}")
     for line in ready.warnings:
@@ -248,9 +249,18 @@ def _assumptions(args):
     from pathlib import Path
 
     from simulator.assumptions import check_assumptions, format_table
+    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json
 
-    report = check_assumptions(_refusing_train(args.case, "assumptions"))
+    case = load_case(args.case)
+    if case.train:
+        from simulator.train_checks import format_train_assumptions, train_assumptions
+
+        report = train_assumptions(case)
+        atomic_write_json(Path(args.out) / "assumptions.json", report)
+        print(format_train_assumptions(report))
+        return 0
+    report = check_assumptions(case)
     atomic_write_json(Path(args.out) / "assumptions.json", report)
     print(format_table(report))
     return 0
@@ -273,19 +283,30 @@ def _screen(args):
     import io
     from pathlib import Path
 
+    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json, atomic_write_text
     from simulator.screening.screen import format_screening, screen, screening_json, sensitivity_rows
 
-    report = screen(_refusing_train(args.case, "screen"))
+    case = load_case(args.case)
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\n")
-    writer.writerow(["parameter", "value_SI", "hot_spot_temperature_K", "normalized_sensitivity"])
-    for name, value, T, s in sensitivity_rows(report):
-        writer.writerow([name, repr(float(value)), "" if T != T else repr(float(T)), "" if s != s else repr(float(s))])
+    if case.train:
+        from simulator.train_checks import format_train_screening, train_screening
+
+        summary, rows = train_screening(case)
+        header, text = ["bed"], format_train_screening(summary)
+    else:
+        report = screen(case)
+        summary, rows = screening_json(report), sensitivity_rows(report)
+        header, text = [], format_screening(report)
+    writer.writerow(header + ["parameter", "value_SI", "hot_spot_temperature_K", "normalized_sensitivity"])
+    for *bed, name, value, T, s in rows:
+        writer.writerow(bed + [name, repr(float(value)), "" if T != T else repr(float(T)),
+                               "" if s != s else repr(float(s))])
     out = Path(args.out)
-    atomic_write_json(out / "screening.json", screening_json(report))
+    atomic_write_json(out / "screening.json", summary)
     atomic_write_text(out / "sensitivity.csv", buffer.getvalue())
-    print(format_screening(report))
+    print(text)
     return 0
 
 

@@ -22,7 +22,7 @@ LAYERS = [
     ("model", "results", "network"),
     ("solve", "output", "train_output"),
     ("sweeps",),
-    ("screening", "assumptions", "sizing", "readiness"),
+    ("screening", "assumptions", "sizing", "readiness", "train_checks"),
     ("report",),
     ("cli", "__main__", "__init__"),
 ]

@@ -244,11 +244,88 @@ def test_validate_says_the_train_runs_and_other_verbs_refuse_in_one_line(cases_d
     from simulator.cli import main
 
     assert main(["validate", str(cases_dir / DEMO)]) == 0
-    assert "`run` runs the train" in capsys.readouterr().out
-    for verb in ("assumptions", "screen", "size", "report"):
+    assert "`run` runs the train, `assumptions` and `screen` check it bed by bed" in capsys.readouterr().out
+    for verb in ("size", "report"):
         assert main([verb, str(cases_dir / DEMO), "--out", str(tmp_path / verb)]) == 2
         err = capsys.readouterr().err.strip().splitlines()
-        assert len(err) == 1 and f"is run by `tubesim run` only; {verb}: " in err[0]
+        assert len(err) == 1 and f"(bed by bed); {verb}: " in err[0]
+    assert main(["sweep", str(cases_dir / DEMO), "--vary", "feed.temperature=680 K..700 K in 2",
+                 "--out", str(tmp_path / "sweep")]) == 2
+    assert "sweep: sweeps run one tube per case" in capsys.readouterr().err
+
+
+# ----------------------------------------------------------------------------- assumptions and screening per bed
+def test_assumptions_check_every_bed_at_its_exact_inlet(tmp_path, capsys):
+    from simulator.cli import main
+    from simulator.train_checks import train_assumptions
+
+    case = _train(_bed("0.3 m", {"kind": "cool-to", "temperature": "700 K"}, heat=COOLED), _bed("0.4 m", heat=COOLED))
+    train = simulate_train(case)
+    report = train_assumptions(case)
+    beds = report["train"]["beds"]
+    assert [b["bed"] for b in beds] == [1, 2]
+    for bed, result in zip(beds, train.beds):
+        # the full model of each bed's check is that bed of the train run (same inlet, same tube)
+        assert bed["full_summary"]["outlet"]["temperature_K"] == pytest.approx(float(result.T[-1]), rel=1e-9)
+        assert bed["full_summary"]["outlet"]["conversion"] == pytest.approx(result.outlet_conversion, rel=1e-9)
+        assert bed["assumptions"]["isothermal"]["verdict"] in ("holds", "fails")
+    path = tmp_path / "train.toml"
+    path.write_text(TWO_COOLED_BEDS)
+    assert main(["assumptions", str(path), "--out", str(tmp_path / "a")]) == 0
+    assert capsys.readouterr().out.count("\nbed ") == 1       # "bed 1" opens the output, "bed 2" on a new line
+    saved = json.loads((tmp_path / "a" / "assumptions.json").read_text())
+    assert len(saved["train"]["beds"]) == 2 and "train's target" not in saved["train"]["note"]
+
+
+def test_screen_screens_every_bed_and_the_train_level_is_the_worst(cases_dir, tmp_path, capsys):
+    # the demo's beds are adiabatic: each bed is judged "not screened" with the reason, at the level the
+    # single-tube rule gives (exothermic and uncooled: review); the train's level is the worst of them
+    from simulator.cli import main
+    from simulator.verdicts import worst
+
+    assert main(["screen", str(cases_dir / DEMO), "--out", str(tmp_path)]) == 0
+    printed = capsys.readouterr().out
+    s = json.loads((tmp_path / "screening.json").read_text())
+    beds = s["train"]["beds"]
+    assert [b["bed"] for b in beds] == [1, 2, 3] and all(not b["applicable"] for b in beds)
+    assert s["train"]["risk_level"] == worst([b["risk_level"] for b in beds]) == "review"
+    assert f"train: risk level {s['train']['risk_level']}" in printed
+    train = simulate_train(load_case(cases_dir / DEMO))
+    for b, result in zip(beds, train.beds):      # screened at the bed's inlet from the train run
+        assert b["hot_spot"]["temperature_K"] == pytest.approx(result.hot_spot["temperature_K"], rel=1e-9)
+    assert (tmp_path / "sensitivity.csv").read_text().startswith("bed,parameter,")
+
+
+TWO_COOLED_BEDS = """
+title = "Two cooled beds"
+[thermo]
+species_file = "nasa_gas.yaml"
+[[reactions]]
+equation = "SO2 + 0.5 O2 <=> SO3"
+pre_exponential = "6.0e5 mol/(kg*s*bar^1.5)"
+activation_energy = "92 kJ/mol"
+orders = { SO2 = 1, O2 = 0.5 }
+in_terms_of = "partial-pressure"
+rate_basis = "catalyst-mass"
+[feed]
+temperature = "690 K"
+pressure = "1.5 bar"
+molar_flow = "2 mol/s"
+mole_fractions = { SO2 = 0.1, O2 = 0.11, N2 = 0.79 }
+[design]
+key_species = "SO2"
+[[train]]
+tube = { length = "0.3 m", inner_diameter = "0.5 m" }
+bed = { particle_diameter = "8 mm", void_fraction = 0.45, bulk_density = "500 kg/m^3" }
+heat = { mode = "exchange", overall_coefficient = "60 W/(m^2*K)", medium = { arrangement = "uniform", temperature = "690 K" } }
+[[train.after]]
+kind = "cool-to"
+temperature = "700 K"
+[[train]]
+tube = { length = "0.4 m", inner_diameter = "0.5 m" }
+bed = { particle_diameter = "8 mm", void_fraction = 0.45, bulk_density = "500 kg/m^3" }
+heat = { mode = "exchange", overall_coefficient = "60 W/(m^2*K)", medium = { arrangement = "uniform", temperature = "690 K" } }
+"""
 
 
 # ----------------------------------------------------------------------------- diagram

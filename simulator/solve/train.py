@@ -100,6 +100,16 @@ def bed_case(bed, F_in, T_in, P_in):
     return dataclasses.replace(bed, feed=feed)
 
 
+def standalone_case(bed):
+    """A bed case as an ordinary feed (mole fractions and molar flow, no ``inlet_flows``).
+
+    For the verbs that vary the feed of one tube (screening scans the feed fraction and flow; the
+    assumption check re-solves variants): ``inlet_flows`` would pin the inlet against such a change.
+    The inlet equals the exact one to round-off (x_i F_T = F_i to about 1e-16 relative).
+    """
+    return dataclasses.replace(bed, feed=dataclasses.replace(bed.feed, inlet_flows=()))
+
+
 def _fresh_flows(case, species):
     """Molar flows of the whole fresh feed as written (before quench shares), [mol/s]."""
     written = case.train[-1].case if len(case.train) > 1 else case.train[0].case
@@ -229,8 +239,6 @@ def train_closure(model, inputs, beds, steps):
 
 #: Verbs that do not run a train yet, each with its one-line reason (the CLI refuses them, validate lists them).
 TRAIN_REFUSALS = {
-    "assumptions": "the assumption check runs one tube; per-bed checks of a train are not available yet",
-    "screen": "runaway screening runs one tube; per-bed screening of a train is not available yet",
     "size": "sizing searches one tube's length or count; sizing a chosen bed of a train is not available yet",
     "report": "the design-basis report describes one tube; run the train with `tubesim run` (summary.json, "
               "profile.csv) and draw its path with simulator.report.train_plots",
@@ -242,5 +250,5 @@ TRAIN_REFUSALS = {
 def refuse_train(case, verb):
     """Raise the one-line CaseError of a verb that does not run a train (no-op for a single tube)."""
     if case.train and verb in TRAIN_REFUSALS:
-        raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is run by `tubesim run` only; "
-                        f"{verb}: {TRAIN_REFUSALS[verb]}.")
+        raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is run by `tubesim run`, "
+                        f"`assumptions` and `screen` (bed by bed); {verb}: {TRAIN_REFUSALS[verb]}.")
