@@ -13,6 +13,7 @@ EPILOG = """examples:
   tubesim run cases/hydrogenation_cooled_packed_bed.toml --out out/h
   tubesim assumptions cases/hydrogenation_cooled_packed_bed.toml --out out/h
   tubesim screen cases/froment1967_oxylene_packed_tube.toml --out out/ox
+  tubesim size cases/train_three_bed_converter.toml --bed 3 --out out/train
   tubesim report cases/hydrogenation_cooled_packed_bed.toml --out out/h
   tubesim sweep CASE --vary "heat.medium.temperature=600 K..660 K in 31" --out DIR
   python -m simulator run CASE --out DIR      (same as tubesim)
@@ -83,6 +84,8 @@ def build_parser():
                        "write sizing.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
+    p.add_argument("--bed", type=_whole_number(1), default=None,
+                   help="reactor train only: the bed (1-based) whose length is sized for the train's target")
 
     p = sub.add_parser("screen", parents=[common], help="runaway screening: hot spot, criteria, critical values; "
                        "write screening.json and sensitivity.csv")
@@ -190,7 +193,8 @@ def _validate(args):
         from simulator.solve.train import TRAIN_REFUSALS
 
         print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); `run` runs the "
-              f"train, `assumptions` and `screen` check it bed by bed; not yet for a train: "
+              f"train, `assumptions` and `screen` check it bed by bed, `size --bed K` sizes one bed; not yet for a "
+              f"train: "
               f"{', '.join(TRAIN_REFUSALS)}")
     for line in ready.notes:
         print(f"note: {line}")
@@ -269,10 +273,26 @@ def _assumptions(args):
 def _size(args):
     from pathlib import Path
 
+    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json
     from simulator.sizing import format_sizing, size
 
-    report = size(_refusing_train(args.case, "size"))
+    case = load_case(args.case)
+    if case.train or args.bed is not None:
+        from simulator.errors import CaseError
+        from simulator.train_sizing import format_train_sizing, size_train_bed
+
+        if not case.train:
+            raise CaseError(f"{args.case}: --bed {args.bed}: the case is one tube, not a reactor train; "
+                            "remove --bed.")
+        if args.bed is None:
+            raise CaseError(f"{args.case}: train: size a reactor train bed by bed: give --bed K (1 to "
+                            f"{len(case.train)}), the bed whose length is sized for the train's target.")
+        report = size_train_bed(case, args.bed)
+        atomic_write_json(Path(args.out) / "sizing.json", report)
+        print(format_train_sizing(report))
+        return 0
+    report = size(case)
     atomic_write_json(Path(args.out) / "sizing.json", report)
     print(format_sizing(report))
     return 0

@@ -22,7 +22,7 @@ LAYERS = [
     ("model", "results", "network"),
     ("solve", "output", "train_output"),
     ("sweeps",),
-    ("screening", "assumptions", "sizing", "readiness", "train_checks"),
+    ("screening", "assumptions", "sizing", "readiness", "train_checks", "train_sizing"),
     ("report",),
     ("cli", "__main__", "__init__"),
 ]

@@ -103,7 +103,7 @@ heat = { mode = "adiabatic" }
 """
 
 
-@pytest.mark.parametrize("verb", ["size", "report"])      # run, assumptions, screen: tests/test_train_run.py
+@pytest.mark.parametrize("verb", ["report"])      # run, assumptions, screen, size: tests/test_train_run.py
 def test_cli_refuses_a_train_in_one_line_with_exit_2(tmp_path, capsys, verb):
     from simulator.cli import main
 

@@ -7,6 +7,7 @@ import numpy as np
 import pytest
 
 from simulator.case.load import load_case, load_case_dict
+from simulator.errors import CaseError
 from simulator.solve.integrate import simulate
 from simulator.solve.interstage import mixed_temperature, stream_enthalpy
 from simulator.solve.train import bed_case, simulate_train, train_closure
@@ -244,11 +245,13 @@ def test_validate_says_the_train_runs_and_other_verbs_refuse_in_one_line(cases_d
     from simulator.cli import main
 
     assert main(["validate", str(cases_dir / DEMO)]) == 0
-    assert "`run` runs the train, `assumptions` and `screen` check it bed by bed" in capsys.readouterr().out
-    for verb in ("size", "report"):
-        assert main([verb, str(cases_dir / DEMO), "--out", str(tmp_path / verb)]) == 2
-        err = capsys.readouterr().err.strip().splitlines()
-        assert len(err) == 1 and f"(bed by bed); {verb}: " in err[0]
+    assert "`run` runs the train, `assumptions` and `screen` check it bed by bed, `size --bed K`" in capsys.readouterr().out
+    assert main(["report", str(cases_dir / DEMO), "--out", str(tmp_path / "report")]) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 1 and "and `size --bed K`; report: " in err[0]
+    assert main(["size", str(cases_dir / DEMO), "--out", str(tmp_path / "size")]) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 1 and "give --bed K (1 to 3)" in err[0]
     assert main(["sweep", str(cases_dir / DEMO), "--vary", "feed.temperature=680 K..700 K in 2",
                  "--out", str(tmp_path / "sweep")]) == 2
     assert "sweep: sweeps run one tube per case" in capsys.readouterr().err
@@ -343,3 +346,51 @@ def test_train_path_reaches_the_equilibrium_curve_in_the_first_bed(cases_dir):
     assert X1[-1] == pytest.approx(np.interp(T1[-1], T_eq, X_eq), abs=2e-3)
     assert [round(a[0], 6) for a, _ in data["steps"]] == [round(float(b.T[-1]), 6) for b in train.beds[:2]]
     assert "equilibrium" in train_path_svg(train)
+
+
+# ----------------------------------------------------------------------------- sizing one bed
+def _two_adiabatic_beds(target):
+    raw = {**_shared(), "design": {"key_species": "SO2", "target_conversion": target},
+           "train": [_bed("0.3 m", {"kind": "cool-to", "temperature": "700 K"}), _bed("0.2 m")]}
+    return load_case_dict(raw)
+
+
+def test_size_gives_the_bed_length_at_which_the_train_meets_its_target():
+    # invariant: the answer is the crossing: the train at that length meets the target, a little shorter it does not
+    from simulator.train_sizing import _with_length, size_train_bed
+
+    case = _two_adiabatic_beds(0.93)
+    given = simulate_train(case).overall_conversion
+    report = size_train_bed(case, 2)["train"]
+    assert report["feasible"] and report["binding_constraint"] == "target_conversion"
+    assert report["overall_conversion_at_given"] == pytest.approx(given, rel=1e-12) and given < 0.93
+    L = report["length_m"]
+    assert L > 0.2 and report["bed_lengths_m"] == pytest.approx([0.3, L], rel=1e-12)
+    assert simulate_train(_with_length(case, 2, L)).overall_conversion == pytest.approx(0.93, abs=1e-7)
+    assert simulate_train(_with_length(case, 2, 0.98 * L)).overall_conversion < 0.93
+
+
+def test_size_says_when_one_beds_length_cannot_reach_the_target(tmp_path, capsys):
+    # beyond what bed 2 can give at its 700 K inlet (equilibrium near 0.98 there): no length, said plainly
+    from simulator.train_sizing import size_train_bed
+
+    report = size_train_bed(_two_adiabatic_beds(0.995), 2)["train"]
+    assert not report["feasible"] and report["length_m"] is None
+    assert report["note"].startswith("not reachable by the length of bed 2 alone")
+    with pytest.raises(CaseError, match=r"--bed 3: the train has 2 beds"):
+        size_train_bed(_two_adiabatic_beds(0.9), 3)
+
+
+def test_size_with_bed_on_a_single_tube_is_refused_in_one_line(cases_dir, tmp_path, capsys):
+    from simulator.cli import main
+
+    assert main(["size", str(cases_dir / "hydrogenation_cooled_packed_bed.toml"), "--bed", "1",
+                 "--out", str(tmp_path)]) == 2
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 1 and "--bed 1: the case is one tube, not a reactor train" in err[0]
+
+
+def test_a_cool_to_step_that_heats_is_flagged():
+    train = simulate_train(_train(_bed("0.05 m", {"kind": "cool-to", "temperature": "760 K"}), _bed("0.05 m")))
+    assert train.status == "completed" and train.interstages[0].duty > 0
+    assert any(w.startswith("after bed 1: cool-to 760 K heats the gas") for w in train.warnings)

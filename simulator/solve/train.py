@@ -145,7 +145,7 @@ def simulate_train(case):
     key = names.index(case.design.key_species)
     fresh = _fresh_flows(case, species)
     n_beds = len(case.train)
-    beds, steps, inputs, fed = [], [], [], []
+    beds, steps, inputs, fed, notes = [], [], [], [], []
     first = case.train[0].case
     first_model = build_model(first, species=species)
     F_in = first_model.y0[:len(names)] * first_model.count
@@ -168,6 +168,7 @@ def simulate_train(case):
         step = apply_interstage(entry.after, k + 1, result.F[-1], float(result.T[-1]), float(result.P[-1]),
                                 species.nasa7, names, fresh, case.train[0].case.feed.temperature)
         steps.append(step)
+        notes += _step_notes(step)
         if step.kind == "quench":
             inputs.append((step.added_flows, step.added_temperature, step.pressure))
             fed_key += float(step.added_flows[key])
@@ -175,7 +176,6 @@ def simulate_train(case):
     total_in = sum(F for F, _, _ in inputs)
     overall = math.nan
     clos = {"elements_relative": math.nan, "energy_relative": math.nan}
-    notes = []
     if status != "failed":
         clos = train_closure(first_model, inputs, beds, steps)
         defect = _closure_defect(clos)
@@ -188,6 +188,16 @@ def simulate_train(case):
     return TrainResult(case=case, species=names, beds=tuple(beds), interstages=tuple(steps), status=status,
                        termination=termination, fed_key=tuple(fed), fresh_flows=total_in,
                        overall_conversion=overall, closure=clos, warnings=tuple(notes))
+
+
+def _step_notes(step):
+    """A warning when a cool-to step heats or a heat-to step cools (the set temperature is still applied)."""
+    wrong = {"cool-to": step.duty > 0.0, "heat-to": step.duty < 0.0}.get(step.kind, False)
+    if not wrong:
+        return []
+    does = "heats" if step.duty > 0.0 else "cools"
+    return [f"after bed {step.after_bed}: {step.kind} {step.outlet_temperature:.6g} K {does} the gas leaving the bed "
+            f"at {step.inlet_temperature:.6g} K (duty {step.duty:+.4g} W): check the interstage temperature"]
 
 
 def _closure_defect(clos):
@@ -239,7 +249,6 @@ def train_closure(model, inputs, beds, steps):
 
 #: Verbs that do not run a train yet, each with its one-line reason (the CLI refuses them, validate lists them).
 TRAIN_REFUSALS = {
-    "size": "sizing searches one tube's length or count; sizing a chosen bed of a train is not available yet",
     "report": "the design-basis report describes one tube; run the train with `tubesim run` (summary.json, "
               "profile.csv) and draw its path with simulator.report.train_plots",
     "sweep": "sweeps run one tube per case; a train cannot be swept yet",
@@ -251,4 +260,4 @@ def refuse_train(case, verb):
     """Raise the one-line CaseError of a verb that does not run a train (no-op for a single tube)."""
     if case.train and verb in TRAIN_REFUSALS:
         raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is run by `tubesim run`, "
-                        f"`assumptions` and `screen` (bed by bed); {verb}: {TRAIN_REFUSALS[verb]}.")
+                        f"`assumptions`, `screen` (bed by bed) and `size --bed K`; {verb}: {TRAIN_REFUSALS[verb]}.")
