@@ -51,6 +51,16 @@ def train_summary(train):
              for s in train.interstages]
     last = train.beds[-1]
     complete = train.status == "completed"
+    X_end = train.path_conversion(len(train.beds) - 1)[-1]
+    outlet = {"bed": len(train.beds), "position_m": _num(sum(float(b.z[-1]) for b in train.beds)),
+              "conversion": None if failed else _num(X_end),
+              "temperature_K": None if failed else _num(last.T[-1]),
+              "pressure_Pa": None if failed else _num(last.P[-1]),
+              "molar_flows_mol_per_s": {s: (None if failed else _num(v)) for s, v in zip(train.species, last.F[-1])},
+              "mole_fractions": {s: (None if failed else _num(v / last.F[-1].sum()))
+                                 for s, v in zip(train.species, last.F[-1])}}
+    solver = train.case.solver
+    steps_taken = sum(int(b.solver_stats.get("steps", 0)) for b in train.beds)
     target = train.case.design.target_conversion
     design = {"target_conversion": _num(target),
               "reached": bool(complete and not math.isnan(target) and train.overall_conversion >= target)}
@@ -61,16 +71,18 @@ def train_summary(train):
         "overall_conversion_basis": f"{train.key_species} converted over everything fed: bed 1 feed and every "
                                     "quench",
         "fed_molar_flows_mol_per_s": {s: _num(v) for s, v in zip(train.species, train.fresh_flows)},
-        "outlet": None if not complete else {
-            "temperature_K": _num(last.T[-1]), "pressure_Pa": _num(last.P[-1]),
-            "molar_flows_mol_per_s": {s: _num(v) for s, v in zip(train.species, last.F[-1])}},
+        "outlet": outlet if complete else None,
         "bed_duty_W": None if failed else _num(sum(float(b.Q[-1]) for b in train.beds)),
         "interstage_duty_W": None if failed else _num(sum(s.duty for s in train.interstages)),
         "closure": {k: (None if failed else _num(v)) for k, v in train.closure.items()},
         "design": design,
     }
+    # the top level reads like a single tube's: where the gas leaves the train (or stopped), the closure
+    # over the train, the shared solver options
     return {"title": train.case.title, "status": train.status, "termination": train.termination,
-            "key_species": train.key_species, "train": block, "warnings": list(train.warnings),
+            "key_species": train.key_species, "outlet": outlet, "closure": block["closure"],
+            "train": block, "warnings": list(train.warnings),
+            "solver": {"rtol": solver.rtol, "atol_scale": solver.atol_scale, "steps": steps_taken},
             "cautions": list(TRAIN_CAUTIONS)}
 
 

@@ -198,6 +198,7 @@ def test_a_failed_bed_fails_the_train_and_says_which_where_and_why(tmp_path):
     assert s["status"] == "failed" and s["train"]["overall_conversion"] is None
     assert s["train"]["closure"] == {"elements_relative": None, "energy_relative": None}
     assert s["train"]["outlet"] is None and s["train"]["beds"][1]["outlet"]["conversion"] is None
+    assert s["outlet"]["bed"] == 2 and s["outlet"]["temperature_K"] is None and s["closure"]["energy_relative"] is None
     (tmp_path / "profile.csv").write_text("stale")
     paths = write_train_run(train, tmp_path)
     assert sorted(p.name for p in tmp_path.iterdir()) == ["profile_until_failure.csv", "summary.json"]
@@ -232,6 +233,10 @@ def test_cli_run_on_the_demo_writes_the_train_files(cases_dir, tmp_path, capsys)
     assert 0.9 < t["overall_conversion"] < 1.0 and t["overall_conversion"] == t["beds"][-1]["conversion_on_fed"]
     assert t["closure"]["elements_relative"] < 1e-12 and t["closure"]["energy_relative"] < 1e-6
     assert t["interstage_duty_W"] == pytest.approx(sum(st["duty_W"] for st in t["interstage"]), rel=1e-12)
+    # the top level reads like a single tube's summary: the train's outlet and its closure
+    assert s["outlet"] == t["outlet"] and s["closure"] == t["closure"]
+    assert s["outlet"]["conversion"] == t["overall_conversion"] and s["outlet"]["position_m"] == pytest.approx(1.9)
+    assert sum(s["outlet"]["mole_fractions"].values()) == pytest.approx(1.0, abs=1e-12)
     with open(out / "profile.csv") as f:
         rows = list(csv.DictReader(f))
     assert {r["bed"] for r in rows} == {"1", "2", "3"}

@@ -123,7 +123,8 @@ def _run_bed(k, bed, species, model=None):
     try:
         return simulate(bed, model=model or build_model(bed, species=species))
     except CaseError as err:
-        raise CaseError([f"train[{k + 1}]: {line}" for line in err.problems]) from err
+        where = f"{bed.source_path}: " if bed.source_path else ""
+        raise CaseError([f"{where}train[{k + 1}]: {line.removeprefix(where)}" for line in err.problems]) from err
 
 
 def simulate_train(case):
@@ -159,9 +160,7 @@ def simulate_train(case):
         beds.append(result)
         if result.status != "completed":
             status = result.status
-            rest = "" if k == n_beds - 1 else f"; bed{'s' if n_beds - k > 2 else ''} {k + 2}" \
-                f"{f'-{n_beds}' if n_beds - k > 2 else ''} not run"
-            termination = f"bed {k + 1} of {n_beds} {result.status}: {result.termination}{rest}"
+            termination = f"bed {k + 1} of {n_beds} {result.status}: {result.termination}{_not_run(k + 2, n_beds)}"
             break
         if entry.after is None:
             continue
@@ -188,6 +187,13 @@ def simulate_train(case):
     return TrainResult(case=case, species=names, beds=tuple(beds), interstages=tuple(steps), status=status,
                        termination=termination, fed_key=tuple(fed), fresh_flows=total_in,
                        overall_conversion=overall, closure=clos, warnings=tuple(notes))
+
+
+def _not_run(first, last):
+    """``; bed 3 not run`` / ``; beds 2-4 not run`` for the beds after a failure or stop (1-based), or ''."""
+    if first > last:
+        return ""
+    return f"; bed {first} not run" if first == last else f"; beds {first}-{last} not run"
 
 
 def _step_notes(step):
