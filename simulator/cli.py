@@ -239,16 +239,6 @@ def _run_train(case, args):
     return 0
 
 
-def _refusing_train(path, verb):
-    """The validated case; a one-line refusal if it is a train and ``verb`` does not run trains."""
-    from simulator.case.load import load_case
-    from simulator.solve.train import refuse_train
-
-    case = load_case(path)
-    refuse_train(case, verb)
-    return case
-
-
 def _assumptions(args):
     from pathlib import Path
 
@@ -331,10 +321,16 @@ def _screen(args):
 
 
 def _report(args):
+    from simulator.case.load import load_case
     from simulator.report.build import write_design_report
 
-    _refusing_train(args.case, "report")
-    paths = write_design_report(args.case, args.out, pdf=not args.no_pdf, command_line=_command_line())
+    case = load_case(args.case)
+    if case.train:
+        from simulator.report.train_report import write_train_report
+
+        paths = write_train_report(case, args.out, pdf=not args.no_pdf, command_line=_command_line())
+    else:
+        paths = write_design_report(args.case, args.out, pdf=not args.no_pdf, command_line=_command_line())
     for kind, path in paths.items():
         if path:
             print(f"{kind}: {path}")

@@ -251,15 +251,14 @@ def test_validate_says_the_train_runs_and_other_verbs_refuse_in_one_line(cases_d
 
     assert main(["validate", str(cases_dir / DEMO)]) == 0
     assert "`run` runs the train, `assumptions` and `screen` check it bed by bed, `size --bed K`" in capsys.readouterr().out
-    assert main(["report", str(cases_dir / DEMO), "--out", str(tmp_path / "report")]) == 2
-    err = capsys.readouterr().err.strip().splitlines()
-    assert len(err) == 1 and "and `size --bed K`; report: " in err[0]
     assert main(["size", str(cases_dir / DEMO), "--out", str(tmp_path / "size")]) == 2
     err = capsys.readouterr().err.strip().splitlines()
     assert len(err) == 1 and "give --bed K (1 to 3)" in err[0]
     assert main(["sweep", str(cases_dir / DEMO), "--vary", "feed.temperature=680 K..700 K in 2",
                  "--out", str(tmp_path / "sweep")]) == 2
-    assert "sweep: sweeps run one tube per case" in capsys.readouterr().err
+    err = capsys.readouterr().err.strip().splitlines()
+    assert len(err) == 1 and "`report`, `assumptions`, `screen` (bed by bed) and `size --bed K`; sweep: sweeps run one " \
+        "tube per case" in err[0]
 
 
 # ----------------------------------------------------------------------------- assumptions and screening per bed
@@ -399,3 +398,36 @@ def test_a_cool_to_step_that_heats_is_flagged():
     train = simulate_train(_train(_bed("0.05 m", {"kind": "cool-to", "temperature": "760 K"}), _bed("0.05 m")))
     assert train.status == "completed" and train.interstages[0].duty > 0
     assert any(w.startswith("after bed 1: cool-to 760 K heats the gas") for w in train.warnings)
+
+
+# ----------------------------------------------------------------------------- report
+def test_report_on_the_demo_states_the_train_results(cases_dir, tmp_path, capsys):
+    import html as html_lib
+    import re
+
+    from simulator.cli import main
+
+    assert main(["report", str(cases_dir / DEMO), "--out", str(tmp_path), "--no-pdf"]) == 0
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["report.html"]
+    document = (tmp_path / "report.html").read_text()
+    body = re.sub(r"<style>.*?</style>", " ", document, flags=re.S)
+    text = re.sub(r"\s+", " ", html_lib.unescape(re.sub(r"<[^>]+>", " ", re.sub(r'src="data:[^"]*"', "", body))))
+    train = simulate_train(load_case(cases_dir / DEMO))
+    assert f"Overall conversion of SO2 (on everything fed) {train.overall_conversion:.4f}" in text
+    assert "0.975: reached at the train outlet" in text
+    for k in (0, 1):      # one row per interstage step: after bed, kind, from T, to T
+        assert f"{k + 1} cool-to {train.beds[k].T[-1]:.2f} 700.00" in text
+    assert "train[2].tube.length 0.6 m 0.6 m" in text
+    assert "Equilibrium of SO2 + 0.5 O2 <=> SO3" in text and document.count("data:image/svg+xml;base64,") == 2
+    assert "licensed" in text and "tubesim screen CASE --out DIR" in text
+
+
+def test_report_of_a_failed_train_is_refused(tmp_path):
+    from simulator.errors import IntegrationError
+    from simulator.report.train_report import write_train_report
+
+    case = _with_bed(_train(_bed("0.2 m", {"kind": "cool-to", "temperature": "700 K"}), _bed("0.3 m")), 1,
+                     max_step=1e-7)
+    with pytest.raises(IntegrationError, match=r"bed 2 of 2 failed"):
+        write_train_report(case, tmp_path, pdf=False)
+    assert list(tmp_path.iterdir()) == []

@@ -255,8 +255,6 @@ def train_closure(model, inputs, beds, steps):
 
 #: Verbs that do not run a train yet, each with its one-line reason (the CLI refuses them, validate lists them).
 TRAIN_REFUSALS = {
-    "report": "the design-basis report describes one tube; run the train with `tubesim run` (summary.json, "
-              "profile.csv) and draw its path with simulator.report.train_plots",
     "sweep": "sweeps run one tube per case; a train cannot be swept yet",
     "uncertainty": "uncertainty samples run one tube per case; a train cannot be sampled yet",
 }
@@ -266,4 +264,4 @@ def refuse_train(case, verb):
     """Raise the one-line CaseError of a verb that does not run a train (no-op for a single tube)."""
     if case.train and verb in TRAIN_REFUSALS:
         raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is run by `tubesim run`, "
-                        f"`assumptions`, `screen` (bed by bed) and `size --bed K`; {verb}: {TRAIN_REFUSALS[verb]}.")
+                        f"`report`, `assumptions`, `screen` (bed by bed) and `size --bed K`; {verb}: {TRAIN_REFUSALS[verb]}.")
