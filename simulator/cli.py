@@ -192,9 +192,9 @@ def _validate(args):
     if case.train:
         from simulator.solve.train import TRAIN_REFUSALS
 
-        print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); `run` runs the "
-              f"train, `assumptions` and `screen` check it bed by bed, `size --bed K` sizes one bed; not yet for a "
-              f"train: "
+        print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); `run` and `report` "
+              f"run the train, `assumptions` and `screen` check it bed by bed, `size --bed K` sizes one bed; not yet "
+              f"for a train: "
               f"{', '.join(TRAIN_REFUSALS)}")
     for line in ready.notes:
         print(f"note: {line}")

@@ -250,7 +250,9 @@ def test_validate_says_the_train_runs_and_other_verbs_refuse_in_one_line(cases_d
     from simulator.cli import main
 
     assert main(["validate", str(cases_dir / DEMO)]) == 0
-    assert "`run` runs the train, `assumptions` and `screen` check it bed by bed, `size --bed K`" in capsys.readouterr().out
+    out = capsys.readouterr().out
+    assert "`run` and `report` run the train, `assumptions` and `screen` check it bed by bed, `size --bed K`" in out
+    assert "not screened: train[1] (adiabatic), train[2] (adiabatic), train[3] (adiabatic)" in out
     assert main(["size", str(cases_dir / DEMO), "--out", str(tmp_path / "size")]) == 2
     err = capsys.readouterr().err.strip().splitlines()
     assert len(err) == 1 and "give --bed K (1 to 3)" in err[0]
