@@ -13,6 +13,7 @@ EPILOG = """examples:
   tubesim run cases/hydrogenation_cooled_packed_bed.toml --out out/h
   tubesim assumptions cases/hydrogenation_cooled_packed_bed.toml --out out/h
   tubesim screen cases/froment1967_oxylene_packed_tube.toml --out out/ox
+  tubesim size cases/train_three_bed_converter.toml --bed 3 --out out/train
   tubesim report cases/hydrogenation_cooled_packed_bed.toml --out out/h
   tubesim sweep CASE --vary "heat.medium.temperature=600 K..660 K in 31" --out DIR
   python -m simulator run CASE --out DIR      (same as tubesim)
@@ -83,6 +84,8 @@ def build_parser():
                        "write sizing.json")
     p.add_argument("case", help="case file (TOML)")
     p.add_argument("--out", required=True, help="output folder")
+    p.add_argument("--bed", type=_whole_number(1), default=None,
+                   help="reactor train only: the bed (1-based) whose length is sized for the train's target")
 
     p = sub.add_parser("screen", parents=[common], help="runaway screening: hot spot, criteria, critical values; "
                        "write screening.json and sensitivity.csv")
@@ -187,8 +190,12 @@ def _validate(args):
     print(f"{args.case}: valid ({len(case.species)} species, {_plural(len(case.reactions), 'reaction')}, "
           f"{_plural(case.tube.count, 'tube')}, heat mode {case.heat.mode}, pressure drop {case.pressure_drop.model})")
     if case.train:
-        print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); the [[train]] keys "
-              "are validated, but no verb runs a train yet")
+        from simulator.solve.train import TRAIN_REFUSALS
+
+        print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); `run` and `report` "
+              f"run the train, `assumptions` and `screen` check it bed by bed, `size --bed K` sizes one bed; not yet "
+              f"for a train: "
+              f"{', '.join(TRAIN_REFUSALS)}")
     for line in ready.notes:
         print(f"note: {line}")
     for line in ready.warnings:
@@ -202,12 +209,33 @@ def _run(args):
     from simulator.solve.integrate import simulate
 
     case = load_case(args.case)
+    if case.train:
+        return _run_train(case, args)
     result = simulate(case)
     write_run(result, args.out)
     print_summary(result)
     if result.status == "failed":
         print(f"error: {result.termination}", file=sys.stderr)
         return 1
+    return 0
+
+
+def _run_train(case, args):
+    from simulator.solve.train import simulate_train
+    from simulator.train_output import print_train_summary, write_train_run
+
+    train = simulate_train(case)
+    write_train_run(train, args.out)
+    print_train_summary(train)
+    if train.status == "failed":
+        print(f"error: {train.termination}", file=sys.stderr)
+        return 1
+    from pathlib import Path
+
+    from simulator.fileio import atomic_write_text
+    from simulator.report.train_plots import train_path_svg
+
+    print(f"figure: {atomic_write_text(Path(args.out) / 'train_path.svg', train_path_svg(train))}")
     return 0
 
 
@@ -218,7 +246,15 @@ def _assumptions(args):
     from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json
 
-    report = check_assumptions(load_case(args.case))
+    case = load_case(args.case)
+    if case.train:
+        from simulator.train_checks import format_train_assumptions, train_assumptions
+
+        report = train_assumptions(case)
+        atomic_write_json(Path(args.out) / "assumptions.json", report)
+        print(format_train_assumptions(report))
+        return 0
+    report = check_assumptions(case)
     atomic_write_json(Path(args.out) / "assumptions.json", report)
     print(format_table(report))
     return 0
@@ -231,7 +267,22 @@ def _size(args):
     from simulator.fileio import atomic_write_json
     from simulator.sizing import format_sizing, size
 
-    report = size(load_case(args.case))
+    case = load_case(args.case)
+    if case.train or args.bed is not None:
+        from simulator.errors import CaseError
+        from simulator.train_sizing import format_train_sizing, size_train_bed
+
+        if not case.train:
+            raise CaseError(f"{args.case}: --bed {args.bed}: the case is one tube, not a reactor train; "
+                            "remove --bed.")
+        if args.bed is None:
+            raise CaseError(f"{args.case}: train: size a reactor train bed by bed: give --bed K (1 to "
+                            f"{len(case.train)}), the bed whose length is sized for the train's target.")
+        report = size_train_bed(case, args.bed)
+        atomic_write_json(Path(args.out) / "sizing.json", report)
+        print(format_train_sizing(report))
+        return 0
+    report = size(case)
     atomic_write_json(Path(args.out) / "sizing.json", report)
     print(format_sizing(report))
     return 0
@@ -246,23 +297,40 @@ def _screen(args):
     from simulator.fileio import atomic_write_json, atomic_write_text
     from simulator.screening.screen import format_screening, screen, screening_json, sensitivity_rows
 
-    report = screen(load_case(args.case))
+    case = load_case(args.case)
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\n")
-    writer.writerow(["parameter", "value_SI", "hot_spot_temperature_K", "normalized_sensitivity"])
-    for name, value, T, s in sensitivity_rows(report):
-        writer.writerow([name, repr(float(value)), "" if T != T else repr(float(T)), "" if s != s else repr(float(s))])
+    if case.train:
+        from simulator.train_checks import format_train_screening, train_screening
+
+        summary, rows = train_screening(case)
+        header, text = ["bed"], format_train_screening(summary)
+    else:
+        report = screen(case)
+        summary, rows = screening_json(report), sensitivity_rows(report)
+        header, text = [], format_screening(report)
+    writer.writerow(header + ["parameter", "value_SI", "hot_spot_temperature_K", "normalized_sensitivity"])
+    for *bed, name, value, T, s in rows:
+        writer.writerow(bed + [name, repr(float(value)), "" if T != T else repr(float(T)),
+                               "" if s != s else repr(float(s))])
     out = Path(args.out)
-    atomic_write_json(out / "screening.json", screening_json(report))
+    atomic_write_json(out / "screening.json", summary)
     atomic_write_text(out / "sensitivity.csv", buffer.getvalue())
-    print(format_screening(report))
+    print(text)
     return 0
 
 
 def _report(args):
+    from simulator.case.load import load_case
     from simulator.report.build import write_design_report
 
-    paths = write_design_report(args.case, args.out, pdf=not args.no_pdf, command_line=_command_line())
+    case = load_case(args.case)
+    if case.train:
+        from simulator.report.train_report import write_train_report
+
+        paths = write_train_report(case, args.out, pdf=not args.no_pdf, command_line=_command_line())
+    else:
+        paths = write_design_report(args.case, args.out, pdf=not args.no_pdf, command_line=_command_line())
     for kind, path in paths.items():
         if path:
             print(f"{kind}: {path}")
@@ -278,16 +346,15 @@ def _command_line():
     return "tubesim " + " ".join(shlex.quote(a) for a in _ARGV)
 
 
-def _raw_case(path):
+def _raw_case(path, verb):
     from pathlib import Path
 
     from simulator.case.load import load_case
 
-    case = load_case(path)               # validate the base case first: every problem at once
-    if case.train:
-        from simulator.errors import CaseError
+    from simulator.solve.train import refuse_train
 
-        raise CaseError(f"{path}: train: a reactor train ([[train]]) cannot be swept or sampled yet.")
+    case = load_case(path)               # validate the base case first: every problem at once
+    refuse_train(case, verb)
     return case.raw, str(Path(path).resolve().parent)
 
 
@@ -326,7 +393,7 @@ def _sweep(args):
     from simulator.sweeps.execute import run_grid_sweep
     from simulator.sweeps.validity import check_vary_values
 
-    raw, case_dir = _raw_case(args.case)
+    raw, case_dir = _raw_case(args.case, "sweep")
     check_vary_values(raw, case_dir, specs, args.case)
     engine, model = choose_engine(args.engine, load_case(args.case), [spec.path for spec in specs], args.scheduler)
     try:
@@ -359,7 +426,7 @@ def _uncertainty(args):
     from simulator.sweeps.execute import run_uncertainty
     from simulator.sweeps.sampling import format_summary
 
-    raw, case_dir = _raw_case(args.case)
+    raw, case_dir = _raw_case(args.case, "uncertainty")
     if not raw.get("uncertainty"):
         from simulator.errors import CaseError
 

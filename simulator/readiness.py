@@ -56,6 +56,12 @@ def check_case(path):
         lines = err.problems if isinstance(err, CaseError) else [str(err)]
         problems += [f"{line.rstrip('.')} (needed by {TUBE_VERBS[0]} and every verb that runs the tube: "
                      f"{', '.join(TUBE_VERBS[1:])})." for line in lines]
+    for k, entry in enumerate(case.train[1:], start=2):     # later beds of a train (bed 1 is built above)
+        try:
+            build_model(entry.case)
+        except SimulatorError as err:
+            lines = err.problems if isinstance(err, CaseError) else [str(err)]
+            problems += [f"train[{k}]: {line.rstrip('.')} (needed by run)." for line in lines]
     entries = case.raw.get("uncertainty")
     if entries is not None:
         try:
@@ -71,7 +77,12 @@ def check_case(path):
     if case.design.target_conversion != case.design.target_conversion:    # NaN: not given
         notes.append("size needs design.target_conversion (not given); the other verbs report conversion "
                      "without a target.")
-    if not case.heat.exchange:
+    uncooled = [(k, e.case.heat.mode) for k, e in enumerate(case.train, start=1) if not e.case.heat.exchange]
+    if case.train and uncooled:      # a train is screened bed by bed
+        beds = ", ".join(f"train[{k}] ({mode})" for k, mode in uncooled)
+        notes.append(f"screen: runaway screening is for a bed that exchanges heat through its wall "
+                     f'(heat.mode = "exchange"); not screened: {beds}.')
+    elif not case.train and not case.heat.exchange:
         notes.append(f"screen: heat.mode = {case.heat.mode!r}; runaway screening is for a tube that exchanges heat "
                      'through its wall (heat.mode = "exchange").')
     rise = model.adiabatic[0]

@@ -20,9 +20,9 @@ LAYERS = [
     ("errors", "units", "references", "fileio", "verdicts"),
     ("case", "thermo", "kinetics"),
     ("model", "results", "network"),
-    ("solve", "output"),
+    ("solve", "output", "train_output"),
     ("sweeps",),
-    ("screening", "assumptions", "sizing", "readiness"),
+    ("screening", "assumptions", "sizing", "readiness", "train_checks", "train_sizing"),
     ("report",),
     ("cli", "__main__", "__init__"),
 ]

@@ -103,13 +103,14 @@ heat = { mode = "adiabatic" }
 """
 
 
-@pytest.mark.parametrize("verb", ["run", "assumptions", "screen", "report"])
-def test_cli_refuses_a_train_in_one_line_with_exit_2(tmp_path, capsys, verb):
+@pytest.mark.parametrize("argv", [["sweep", "--vary", "feed.temperature=690 K..700 K in 2"],
+                                  ["uncertainty", "--samples", "4"]])     # the other verbs: tests/test_train_run.py
+def test_cli_refuses_a_train_in_one_line_with_exit_2(tmp_path, capsys, argv):
     from simulator.cli import main
 
     path = tmp_path / "train.toml"
     path.write_text(TRAIN_TOML)
-    assert main([verb, str(path), "--out", str(tmp_path / "out")]) == 2
+    assert main([argv[0], str(path), *argv[1:], "--out", str(tmp_path / "out")]) == 2
     err = capsys.readouterr().err.strip().splitlines()
     assert len(err) == 1 and "train: a reactor train" in err[0]
 

@@ -212,13 +212,16 @@ def _environment(folder):
     return env
 
 
-def render_html(context):
+def render_html(context, template=_TEMPLATE):
     """Render the design-basis report to one self-contained HTML string.
 
     Parameters
     ----------
     context : mapping
         Display values, exactly as described in the module docstring, [-]
+    template : str
+        Template file in :func:`template_dir` (``train_report.html.j2``: a reactor train,
+        context from :mod:`simulator.report.context_train`), [-]
 
     Returns
     -------
@@ -235,7 +238,7 @@ def render_html(context):
 
     env = _environment(str(template_dir()))
     try:
-        return env.get_template(_TEMPLATE).render(context)
+        return env.get_template(template).render(context)
     except ReportError:
         raise
     except jinja2.UndefinedError as err:
@@ -244,4 +247,4 @@ def render_html(context):
             f"docstring is required (verdict level must be one of: {', '.join(LEVELS)})."
         ) from err
     except jinja2.TemplateError as err:
-        raise ReportError(f"report template {_TEMPLATE}: {err}") from err
+        raise ReportError(f"report template {template}: {err}") from err

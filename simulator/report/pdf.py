@@ -141,7 +141,7 @@ def render_pdf(html, fetcher=None):
         raise ReportError(f"PDF report: weasyprint failed: {type(err).__name__}: {err}") from err
 
 
-def write_report(context, out_dir, pdf=True):
+def write_report(context, out_dir, pdf=True, template="report.html.j2"):
     """Render and write ``report.html`` (and ``report.pdf``) atomically.
 
     Both documents are rendered before either file is written, so a render
@@ -155,6 +155,8 @@ def write_report(context, out_dir, pdf=True):
         Output folder, created if needed, [-]
     pdf : bool
         Also write ``report.pdf``, [-]
+    template : str
+        Template of :func:`simulator.report.html.render_html`, [-]
 
     Returns
     -------
@@ -169,7 +171,7 @@ def write_report(context, out_dir, pdf=True):
     from simulator.report.html import render_html
 
     out_dir = Path(out_dir)
-    html = render_html(context)
+    html = render_html(context, template=template)
     pdf_bytes = render_pdf(html) if pdf else None
     written = {}
     try:

@@ -145,6 +145,12 @@ CHECKS = ({'key': 'levenspiel1999',
   'where': 'ch. 8, reactions in series A -> R -> S, plug flow: tau_max and C_R,max/C_A0 = '
            '(k1/k2)^(k2/(k2-k1)) (equation numbers from memory)',
   'test': 'tests/test_network.py::test_series_yield_maximum_against_closed_form'},
+ {'key': 'levenspiel1999',
+  'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
+  'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
+              'the ideal design of the assumption check, against the closed-form performance equations',
+  'where': 'ch. 8, first-order reactions in series A -> B -> C in plug flow (chapter from memory)',
+  'test': 'tests/test_network_run.py::test_series_yields_match_the_closed_form_in_a_run'},
  {'key': 'froment1967',
   'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
               '18-27, 1967',
@@ -676,6 +682,16 @@ CHECKS = ({'key': 'levenspiel1999',
               'enthalpy balance on the tabulated data',
   'where': 'ideal-gas heat capacity tables',
   'test': 'tests/test_thermo_janaf.py::test_heat_capacity_against_janaf'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport',
+  'where': 'mixture enthalpy: Quantity mixing at constant H and P',
+  'test': 'tests/test_train_run.py::test_quench_mixed_temperature_against_cantera_mixing'},
  {'key': 'levenspiel1999',
   'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
   'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '

@@ -55,6 +55,23 @@ def _enthalpy_cantera(model, F, T, P, K=compiled_kernel):
     return H
 
 
+def stream_enthalpy(model, F, T, P):
+    """Enthalpy flow of a stream of the model's species, [W] (Cantera species thermo, see the closure).
+
+    Parameters
+    ----------
+    model : simulator.model.build.Model
+        Model whose species and thermo the stream has.
+    F : ndarray
+        Molar flows (n,), [mol/s]
+    T : float
+        Temperature, [K]
+    P : float
+        Pressure, [Pa]
+    """
+    return _enthalpy_cantera(model, np.asarray(F, dtype=float), T, P)
+
+
 def closure(model, ys, K=compiled_kernel):
     """Element and energy closure of a profile (per tube states), relative [-]."""
     n = model.n

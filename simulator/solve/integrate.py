@@ -411,8 +411,8 @@ def simulate(case, model=None, length=None):
     if case.train:
         from simulator.errors import CaseError
 
-        raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is validated but not yet run by "
-                        "any verb; run each bed as a case of its own.")
+        raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is not one tube; it runs through "
+                        "simulator.solve.train.simulate_train (tubesim run).")
     with np.errstate(all="ignore"):
         if case.heat.exchange and arrangement_of(case.heat).boundary_value:
             from simulator.solve.counter_current import simulate_counter_current
