@@ -80,6 +80,18 @@ def print_summary(result, stream=None):
     elif s["adiabatic"]:
         lines.append(f"  adiabatic rise    not defined: {s['adiabatic']['note']} (complete conversion of "
                      f"{s['key_species']} cannot happen adiabatically)")
+    if s.get("products"):
+        lines.append("  products          " + "; ".join(
+            f"{name}: yield {_f(v['yield'], '.4f')}, selectivity {_f(v['selectivity'], '.4f')}"
+            for name, v in s["products"].items()) + f" (on {s['key_species']})")
+    if s.get("max_wall_temperature_K") is not None:
+        w = s["wall"]
+        lines.append(f"  tube wall         hottest {w['max_wall_temperature_K']:.2f} K at z = "
+                     f"{w['max_wall_temperature_position_m']:.4g} m; U {w['overall_coefficient_W_per_m2K']['min']:.4g} to "
+                     f"{w['overall_coefficient_W_per_m2K']['max']:.4g} W/(m^2*K)"
+                     if w.get("overall_coefficient_W_per_m2K") else
+                     f"  tube wall         hottest {w['max_wall_temperature_K']:.2f} K at z = "
+                     f"{w['max_wall_temperature_position_m']:.4g} m")
     c = s["closure"]
     lines.append(f"  closure           elements {_f(c['elements_relative'], '.1e')}, energy "
                  f"{_f(c['energy_relative'], '.1e')}")

@@ -19,7 +19,7 @@ PACKAGE_NAME = "simulator"
 LAYERS = [
     ("errors", "units", "references", "fileio", "verdicts"),
     ("case", "thermo", "kinetics"),
-    ("model", "results", "network"),
+    ("model", "results", "network", "network_results"),
     ("solve", "output", "train_output"),
     ("sweeps",),
     ("screening", "assumptions", "sizing", "readiness", "train_checks", "train_sizing"),

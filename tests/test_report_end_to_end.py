@@ -200,6 +200,8 @@ def test_inputs_show_every_case_value_as_written_and_in_si(reports, name):
         assert path in table, path
         if isinstance(value, str):
             assert table[path][0] == value, path
+        elif isinstance(value, list):       # a list of names (design.products), as written in TOML
+            assert table[path][0] == "[" + ", ".join(f'"{v}"' for v in value) + "]", path
         elif not isinstance(value, bool):
             assert float(table[path][0]) == value, path
             assert float(table[path][1]) == pytest.approx(value, rel=1e-5), path

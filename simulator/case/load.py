@@ -456,11 +456,7 @@ def _reactions(ck, raw):
         elif "inhibition" in r or "inhibition_power" in r:
             ck.fail(path, ': inhibition terms need form = "hougen-watson".')
         if reversible:
-            for s, nu in stoich.items():
-                if nu < 0 and orders.get(s, 0.0) + nu < -1e-12:
-                    ck.fail(f"{path}.orders.{s}", f" = {orders.get(s, 0.0):g}: for a reversible reaction the "
-                            f"order of a reactant must be >= its coefficient ({-nu:g}) so that the reverse "
-                            "rate (forward rate x Q/K) stays finite.")
+            _reverse_orders(ck, path, stoich, orders, raw)
         as_written = tuple((k, str(v)) for k, v in r.items() if k != "inhibition")
         out.append(Reaction(equation=r.get("equation"), stoichiometry=tuple(stoich.items()),
                             reversible=reversible, form=form or "power-law", pre_exponential=A,
@@ -683,6 +679,24 @@ def _design(ck, raw):
                   wall_temperature_limit=ck.quantity(d, "wall_temperature_limit", "temperature", "design",
                                                      required=False, minimum=0.0),
                   products=_products(ck, d))
+
+
+def _reverse_orders(ck, path, stoich, orders, raw):
+    """Reverse orders alpha + nu of a reversible reaction: negative ones need the species in the feed.
+
+    The reverse rate is the forward rate x Q/K, so its orders are alpha_i + nu_i (thermodynamically
+    consistent: it vanishes exactly at K). They may be fractional or negative (Temkin-type rates),
+    but a negative exponent on an activity that is zero at the feed makes the rate infinite there.
+    """
+    feed = raw.get("feed", {}).get("mole_fractions", {}) if isinstance(raw.get("feed"), dict) else {}
+    feed = feed if isinstance(feed, dict) else {}
+    for s, nu in stoich.items():
+        e = orders.get(s, 0.0) + nu
+        if nu < 0 and e < -1e-12 and not (isinstance(feed.get(s), (int, float)) and feed.get(s) > 0):
+            ck.fail(f"{path}.orders.{s}", f" = {orders.get(s, 0.0):g}: for a reversible reaction the reverse rate "
+                    f"(forward rate x Q/K) has order {e:g} in {s!r}, negative, and {s!r} is not in the feed, so the "
+                    f"rate would be infinite at the inlet; put {s!r} in the feed or give it an order >= its "
+                    f"coefficient ({-nu:g}).")
 
 
 def _products(ck, d):

@@ -344,7 +344,12 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, 
 
     Activities are y_i P (partial pressure, [Pa]) or y_i P/(Z R T) (concentration,
     [mol/m^3]) with y_i = max(F_i, 0)/F_T, written as ``max(F_i, 0) * inv * scale``.
-    A reversible reaction adds -(k/K) prod a^(alpha + nu), K from the NASA rows.
+    A reversible reaction adds -(k/K) prod a^(alpha + nu), K from the NASA rows. Reverse orders
+    alpha + nu may be fractional or negative (Temkin-type rates, e.g. r = k1 p_N2 (p_H2^3/p_NH3^2)^a
+    - k2 (p_NH3^2/p_H2^3)^(1-a) is alpha = (1, 3a, -2a)); an activity with a negative exponent is
+    held above the flow floor ``DEPLETION_FRACTION`` x the feed flow (the loader refuses a species
+    whose activity is zero at the feed under a negative exponent), so a flow the solver leaves at
+    zero within its tolerance gives a large, finite rate instead of an infinite one.
     """
     n = ip[I_N]
     act_is_p = rx[j, X_ACT] > 0.5
@@ -353,10 +358,11 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, 
     if rx[j, X_B] != 0.0:
         k *= T ** rx[j, X_B]
     fwd = k
+    floor = DEPLETION_FRACTION * fp[F_FT0]     # activity floor of a negative exponent (Temkin-type rates)
     for i in range(n):
         o = ordr[i, j]
         if o != 0.0:
-            fwd *= _power(max(F[i], 0.0) * scale, o)
+            fwd *= _power((max(F[i], 0.0) if o > 0.0 else max(F[i], floor)) * scale, o)
         if o < 1.0 and nu[i, j] < 0.0:   # a rate that would not vanish with this reactant
             fwd *= _depletion(F[i], DEPLETION_FRACTION * fp[F_FT0])
     r = fwd
@@ -377,7 +383,7 @@ def reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, 
         for i in range(n):
             e = rexp[i, j]
             if e != 0.0:
-                rev *= _power(max(F[i], 0.0) * scale, e)
+                rev *= _power((max(F[i], 0.0) if e > 0.0 else max(F[i], floor)) * scale, e)
             if e < 1.0 and nu[i, j] > 0.0:   # the reverse rate consumes the products
                 rev *= _depletion(F[i], DEPLETION_FRACTION * fp[F_FT0])
         r = fwd - rev

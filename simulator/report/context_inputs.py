@@ -97,6 +97,8 @@ def _as_written(value):
         return "true" if value else "false"
     if isinstance(value, float):
         return repr(value)
+    if isinstance(value, list):        # e.g. design.products, as written in TOML
+        return "[" + ", ".join(f'"{v}"' if isinstance(v, str) else _as_written(v) for v in value) + "]"
     return str(value)
 
 
