@@ -136,6 +136,7 @@ class Result:
             "references": list(self.references),
             "versions": self.versions,
             **self._steady_states_block(),
+            **self.extra.get("summary_blocks", {}),     # e.g. the 2-D model's (simulator.solve.radial_run)
         }
 
     def _steady_states_block(self):
@@ -178,4 +179,8 @@ class Result:
                    self.Q[k]]
             row += list(self.F[k]) + list(x[k])
             rows.append(row)
+        for name, values in self.extra.get("profile_columns", ()):   # e.g. the 2-D model's temperatures
+            header.append(name)
+            for row, value in zip(rows, values):
+                row.append(value)
         return header, rows

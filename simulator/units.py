@@ -62,6 +62,8 @@ DIMENSIONS = {
     "viscosity": "[mass] / [length] / [time]",
     "heat_transfer_coefficient": "[mass] / [time] ** 3 / [temperature]",
     "temperature_difference": "[temperature]",
+    "thermal_conductivity": "[mass] * [length] / [time] ** 3 / [temperature]",
+    "diffusivity": "[length] ** 2 / [time]",
 }
 
 #: SI unit text of each named dimension (for messages).
@@ -70,7 +72,7 @@ SI_UNITS = {
     "volumetric_flow": "m^3/s", "molar_mass": "kg/mol", "molar_heat_capacity": "J/(mol*K)",
     "specific_heat_capacity": "J/(kg*K)", "molar_energy": "J/mol", "molar_entropy": "J/(mol*K)",
     "density": "kg/m^3", "viscosity": "Pa*s", "heat_transfer_coefficient": "W/(m^2*K)",
-    "temperature_difference": "K",
+    "temperature_difference": "K", "thermal_conductivity": "W/(m*K)", "diffusivity": "m^2/s",
 }
 
 _EXAMPLES = {
@@ -89,6 +91,8 @@ _EXAMPLES = {
     "viscosity": '"2.2e-5 Pa*s"',
     "heat_transfer_coefficient": '"180 W/(m^2*K)"',
     "temperature_difference": '"10 K" or "10 delta_degC"',
+    "thermal_conductivity": '"0.9 W/(m*K)"',
+    "diffusivity": '"3e-4 m^2/s"',
 }
 
 

@@ -22,7 +22,7 @@ LAYERS = [
     ("model", "results", "network"),
     ("solve", "output"),
     ("sweeps",),
-    ("screening", "assumptions", "sizing", "readiness"),
+    ("screening", "assumptions", "radial_assumption", "sizing", "readiness"),
     ("report",),
     ("cli", "__main__", "__init__"),
 ]

@@ -10,6 +10,8 @@ molar flows [mol/s], mass flows [kg/s], molar masses [kg/mol], heat capacities
 from dataclasses import dataclass, field
 from typing import Literal
 
+from simulator.case.radial_keys import RadialSettings
+
 EquationOfState = Literal["ideal-gas", "peng-robinson", "liquid"]
 HeatMode = Literal["isothermal", "adiabatic", "exchange"]
 MediumArrangement = Literal["", "uniform", "co-current", "counter-current", "wall-profile"]
@@ -187,6 +189,7 @@ class Case:
     raw: dict = field(default_factory=dict, compare=False, repr=False)  # the case as written
     source: str = ""                     # source key of published data, if any
     train: tuple = ()                    # TrainBed entries of a reactor train (see simulator.case.train)
+    radial: RadialSettings = field(default_factory=RadialSettings)   # [model] radial (simulator.case.radial_keys)
 
 
 InterstageKind = Literal["cool-to", "heat-to", "quench"]
