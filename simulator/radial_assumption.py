@@ -14,6 +14,9 @@ rise above the medium with the 1-D rise of the tube lumped as above:
 * verdict and level by the rule of every row (:func:`simulator.verdicts.assumption_level`);
 * design change: the catalyst mass to the target, 1-D against 2-D (cup-mixing conversion).
 
+Both tubes run without ``design.temperature_limit`` (as the ideal variants do), so each rise is the
+true maximum; ``details.above_temperature_limit`` says which model's hot spot reaches the limit.
+
 Which coefficient is which: with ``model.radial = "2d"`` the typed ``heat.overall_coefficient``
 is U_o (outside the bed) and the 1-D tube compared gets U_1D from the formula; with
 ``model.radial = "1d"`` the typed coefficient is U_1D itself and the 2-D run gets
@@ -61,7 +64,7 @@ UNIT = "-"
 def applies(case):
     """Why the row does not apply (a sentence), or None when it does."""
     if case.bed is None:
-        return "does not apply here: the 2-D model is built for packed beds only (an empty tube is not checked)"
+        return "the 2-D model is built for packed beds only (an empty tube is not checked for radial gradients)"
     if not case.heat.exchange:
         return (f"does not apply: heat.mode = {case.heat.mode!r}, no heat crosses the wall, so there is no radial "
                 "temperature gradient")
@@ -92,38 +95,41 @@ def one_dimensional_entry(case, full_result, numbers, change_of, conversion_chan
                "tube_to_particle_source": "D/d_p > 8 (common practice, no source)"}
     if not rs.given:
         return _row(base, None, "unknown", None,
-                    "not checked: give [bed] radial_conductivity, radial_diffusivity and wall_coefficient "
-                    "(the 2-D model needs them)", None, details)
+                    "the 2-D model needs [bed] radial_conductivity, radial_diffusivity and wall_coefficient; "
+                    "give them to check this (no correlation is used in their place)", None, details)
     if case.heat.arrangement not in ("uniform", "co-current"):
         return _row(base, None, "unknown", None,
-                    f"not checked: the 2-D model is not built for a {case.heat.arrangement} medium", None, details)
+                    f"the 2-D model is not built for a {case.heat.arrangement} medium", None, details)
     if case.thermo.equation_of_state != "ideal-gas":
-        return _row(base, None, "unknown", None, "not checked: the 2-D model is built for an ideal gas only", None,
-                    details)
+        return _row(base, None, "unknown", None, "the 2-D model is built for an ideal gas only", None, details)
     radius = 0.5 * case.tube.inner_diameter
+    # both tubes without the temperature limit, so that each rise is the true maximum (the limit is
+    # judged in the details); the case's own run is reused when the limit did not stop it
+    free = dataclasses.replace(case, design=dataclasses.replace(case.design, temperature_limit=math.nan))
+    own = full_result if full_result.status != "stopped" else simulate(free)
     if rs.two_dimensional:
-        two = full_result
+        two = own
         U_1d = lumped_coefficient(rs.wall_coefficient, rs.conductivity, radius, _outer(case.heat.overall_coefficient))
-        one = simulate(dataclasses.replace(case, radial=dataclasses.replace(rs, dimension="1d"),
+        one = simulate(dataclasses.replace(free, radial=dataclasses.replace(rs, dimension="1d"),
                                            heat=dataclasses.replace(case.heat, overall_coefficient=U_1d)))
     else:
-        one = full_result
+        one = own
         U_1d = case.heat.overall_coefficient
         inside = 1.0 / rs.wall_coefficient + radius / (4.0 * rs.conductivity)
         if not U_1d > 0.0 or 1.0 / U_1d <= inside:
             return _row(base, None, "unknown", None,
-                        f"not checked: heat.overall_coefficient = {U_1d:.4g} W/(m^2*K) is not below the bed-side "
+                        f"heat.overall_coefficient = {U_1d:.4g} W/(m^2*K) is not below the bed-side "
                         f"limit 1/(1/h_w + R/(4 lambda_er)) = {1.0 / inside:.4g} W/(m^2*K), so no outside "
                         "coefficient fits the 2-D model; check the coefficients", None, details)
         U_o = 1.0 / (1.0 / U_1d - inside)
-        two = simulate(dataclasses.replace(case, radial=dataclasses.replace(rs, dimension="2d"),
+        two = simulate(dataclasses.replace(free, radial=dataclasses.replace(rs, dimension="2d"),
                                            heat=dataclasses.replace(case.heat, overall_coefficient=U_o)))
     details.update(mears_radial(case))
     details["lumped_coefficient_W_per_m2_K"] = U_1d
     if "failed" in (one.status, two.status):
         which = " and ".join(lab for lab, r in (("1-D", one), ("2-D", two)) if r.status == "failed")
         details["runs"] = {"1d": one.termination, "2d": two.termination}
-        return _row(base, None, "unknown", None, f"not checked: the {which} run failed ({_failed(one, two)})",
+        return _row(base, None, "unknown", None, f"the {which} run failed ({_failed(one, two)})",
                     None, details)
     rise_1d = _rise(one.hot_spot)
     rise_2d = _rise(two.hot_spot)
@@ -131,6 +137,9 @@ def one_dimensional_entry(case, full_result, numbers, change_of, conversion_chan
                     "cup_mixing_rise_2d_K": _rise(two.summary().get("cup_mixing_hot_spot", {})),
                     "hot_spot_2d_K": two.hot_spot["temperature_K"], "hot_spot_1d_K": one.hot_spot["temperature_K"],
                     "ratio_1d_to_2d": rise_1d / rise_2d if rise_2d else None,
+                    "temperature_limit_K": case.design.temperature_limit,
+                    "above_temperature_limit": [lab for lab, r in (("1-D", one), ("2-D", two))
+                                                if r.hot_spot["temperature_K"] >= case.design.temperature_limit],
                     "stopped": [lab for lab, r in (("1-D", one), ("2-D", two)) if r.status == "stopped"]})
     value = abs(rise_2d - rise_1d) / max(abs(rise_2d), RISE_FLOOR)
     n1, n2 = numbers(one), numbers(two)

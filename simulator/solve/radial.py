@@ -224,6 +224,10 @@ def _profiles(model, args, zs, ys, ok, message, nfev):
     F_cup = np.einsum("k,zki->zi", w, F_pts)
     T_wall, T_cup, T_centre = RAD.section_temperatures(np.ascontiguousarray(ys), n, N, A, w, centre, bi, nasa, ip,
                                                        crit)
+    # a uniform interior (the feed at z = 0) is uniform up to the axis: the polynomial through it and a
+    # wall value set by the Robin condition would put a collocation artefact on the axis there
+    uniform = np.ptp(T_pts, axis=1) == 0.0
+    T_centre = np.where(uniform, T_pts[:, 0], T_centre)
     ys1 = np.column_stack([F_cup, T_cup, P, Tc, Q])
     clos = closure(model, ys1, K1) if ok else {"elements_relative": math.nan, "energy_relative": math.nan}
     return RadialProfiles(z=zs, x=x, T_points=T_pts, T_centre=T_centre, T_cup=T_cup, T_wall=T_wall, F_cup=F_cup,
