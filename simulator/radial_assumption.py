@@ -1,6 +1,7 @@
 r"""The ``one_dimensional`` row of ``assumptions``: is the packed tube free of radial gradients?
 
-The 1-D model lumps the bed's radial resistance into one coefficient (Froment & Bischoff,
+Made for packed beds (an empty tube gets no such row: its radial model is not built). The 1-D
+model lumps the bed's radial resistance into one coefficient (Froment & Bischoff,
 *Chemical Reactor Analysis and Design*, 2nd ed., 1990, ch. 11; from memory)
 
 .. math:: \frac{1}{U_{1D}} = \frac{1}{h_w} + \frac{R}{4\lambda_{er}} + \frac{1}{U_o}
@@ -62,9 +63,7 @@ UNIT = "-"
 
 
 def applies(case):
-    """Why the row does not apply (a sentence), or None when it does."""
-    if case.bed is None:
-        return "the 2-D model is built for packed beds only (an empty tube is not checked for radial gradients)"
+    """Why the row does not apply (a sentence), or None when it does (the row is made for packed beds only)."""
     if not case.heat.exchange:
         return (f"does not apply: heat.mode = {case.heat.mode!r}, no heat crosses the wall, so there is no radial "
                 "temperature gradient")
@@ -87,8 +86,7 @@ def one_dimensional_entry(case, full_result, numbers, change_of, conversion_chan
             "threshold_source": THRESHOLD_SOURCE}
     reason = applies(case)
     if reason is not None:
-        verdict = "holds" if case.bed is not None else "unknown"
-        return _row(base, None, verdict, None, reason, None, {})
+        return _row(base, None, "holds", None, reason, None, {})
     rs = case.radial
     details = {"tube_to_particle_ratio": case.tube.inner_diameter / case.bed.particle_diameter,
                "tube_to_particle_minimum": TUBE_TO_PARTICLE_MIN,
