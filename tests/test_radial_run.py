@@ -209,6 +209,15 @@ def test_failed_two_dimensional_run_is_reported_as_failed(cases_dir):
     assert "cup_mixing_hot_spot" not in summary
 
 
+def test_two_dimensional_run_keeps_the_step_budget_of_a_run(cases_dir):
+    # a max_step that cannot fit the run's budget is refused before integrating, as for a 1-D run
+    raw = _two_d(_raw(cases_dir))
+    raw["solver"]["max_step"] = "4e-5 m"            # 75 000 steps: accepted, past the budget
+    result = simulate(load_case_dict(raw, "budget2d.toml", str(cases_dir)))
+    assert result.status == "failed" and "not integrated" in result.termination
+    assert "solver.max_step" in result.termination
+
+
 # ------------------------------------------------------------------ the assumption row
 def test_demo_one_dimensional_holds_but_the_radial_row_asks_for_review(cases_dir):
     from simulator.assumptions import check_assumptions
@@ -259,7 +268,8 @@ def test_row_of_an_adiabatic_bed_does_not_apply(cases_dir):
     (lambda r: r["heat"]["medium"].update(arrangement="counter-current", mass_flow="1 kg/s", cp="1 kJ/(kg*K)"),
      r"heat\.medium\.arrangement = 'counter-current': the 2-D model .* is not built"),
     (lambda r: r.update(heat={"mode": "adiabatic"}), r"heat\.mode = 'adiabatic': model\.radial = \"2d\" needs heat"),
-    (lambda r: r["bed"].update(radial_conductivity="-1 W/(m*K)"), r"bed\.radial_conductivity = '-1 W/\(m\*K\)': must be > 0"),
+    (lambda r: r["bed"].update(radial_conductivity="-1 W/(m*K)"),
+     r"bed\.radial_conductivity = '-1 W/\(m\*K\)': must be > 0"),
     (lambda r: r["bed"].update(radial_diffusivity="1e6 m^2/s"), r"bed\.radial_diffusivity = '1e6 m\^2/s'"),
 ])
 def test_bad_radial_keys_are_refused_in_one_line(cases_dir, change, match):

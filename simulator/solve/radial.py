@@ -16,6 +16,7 @@ from scipy.integrate import ODEintWarning, odeint
 from simulator.model import kernel as K1
 from simulator.model import radial as RAD
 from simulator.solve.checks import closure
+from simulator.solve.integrate import SUCCESS, _integrate_budgeted, _reached
 
 
 @dataclass(frozen=True)
@@ -85,9 +86,10 @@ def initial_state(model, points):
     return np.concatenate([np.tile(y0[:n], points), np.full(points, y0[n]), y0[n + 1:n + 4]])
 
 
-SUCCESS = "Integration successful."
-#: ODEPACK steps one output interval may take (the 1-D run's budget is RUN_STEP_BUDGET in all)
+#: ODEPACK steps one output interval may take in a plain run (solve_radial)
 INTERVAL_STEPS = 50_000
+#: ODEPACK steps one re-integration of the post-processing (events, maxima) may take
+POST_STEPS = 5_000
 
 
 class RadialTube:
@@ -139,11 +141,26 @@ class RadialTube:
         good = int(np.argmin(reached)) if not reached.all() else len(zs)
         return ys, (message if message != SUCCESS else "the state became non-finite"), max(good, 1)
 
+    def run_budgeted(self, y0, zs):
+        """The main integration within the 1-D run's budget of RUN_STEP_BUDGET steps in all
+        (:func:`simulator.solve.integrate._integrate_budgeted`: one call, then chunks from the last
+        output point reached); returns (states, message, outputs reached)."""
+        ys, info = _integrate_budgeted(_CountedRuns(self), y0, zs)
+        ys = np.asarray(ys)
+        message = info["message"]
+        finite = np.all(np.isfinite(ys), axis=1)
+        if message == SUCCESS and finite.all():
+            return ys, message, len(zs)
+        good = int(np.argmin(finite)) if not finite.all() else len(zs)
+        if message != SUCCESS:
+            good = min(good, _reached(info, zs) + 1)
+        return ys, (message if message != SUCCESS else "the state became non-finite"), max(good, 1)
+
     def state_at(self, z0, y0, z):
         """State at z integrated from (z0, y0); None when that integration fails."""
         if z == z0:
             return y0
-        ys, message, good = self.run(y0, np.array([z0, z]))
+        ys, message, good = self.run(y0, np.array([z0, z]), mxstep=POST_STEPS)
         return ys[-1] if good == 2 else None
 
     def centre_temperature(self, y):
@@ -162,6 +179,27 @@ class RadialTube:
     def profiles(self, zs, ys, ok, message):
         """:class:`RadialProfiles` of the states ys at zs."""
         return _profiles(self.model, self.args, zs, ys, ok, message, self.nfev)
+
+
+class _CountedRuns:
+    """A RadialTube seen as the budgeted driver of the 1-D run expects: run -> (states, info, steps)."""
+
+    def __init__(self, tube):
+        self.tube = tube
+
+    def run(self, y0, zs, mxstep):
+        t = self.tube
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore", ODEintWarning)
+            sol, info = odeint(RAD.rhs_odeint, y0, zs, args=t.args, rtol=t.rtol, atol=t.atol, full_output=True,
+                               mxstep=mxstep, hmax=t.hmax, printmessg=False)
+        reached = _reached(info, zs)
+        steps = int(info["nst"][reached - 1]) if reached else 0
+        if reached:
+            t.nfev += int(info["nfe"][reached - 1])
+        if info["message"] != SUCCESS and "Excess work done" in info["message"]:
+            steps += mxstep
+        return sol, info, steps
 
 
 @functools.lru_cache(maxsize=None)

@@ -32,8 +32,9 @@ from simulator.model import kernel as K1
 from simulator.model.heat import arrangement_of
 from simulator.results import Result
 from simulator.solve.checks import closure_failure, closure_warnings, range_warnings
-from simulator.solve.integrate import PRESSURE_FLOOR, _design_numbers, model_warnings, references_used, versions
-from simulator.solve.radial import RadialTube
+from simulator.solve.integrate import (PRESSURE_FLOOR, _budget_refusal, _design_numbers, _explain_failure,
+                                      model_warnings, references_used, versions)
+from simulator.solve.radial import POST_STEPS, RadialTube
 from simulator.units import R as R_GAS
 
 #: located_by of the 2-D hot spots
@@ -65,14 +66,19 @@ def simulate_radial(case, model=None, length=None):
     L = case.tube.length if length is None else length
     zs = np.linspace(0.0, L, case.solver.output_points)
     tube = RadialTube(model, rs.points, rs.conductivity, rs.diffusivity, rs.wall_coefficient)
-    with np.errstate(all="ignore"):
-        ys, message, good = tube.run(tube.y0, zs)
     status, termination = "completed", f"end of tube reached at z = {L:.6g} m"
-    if good < len(zs):
+    refusal = _budget_refusal(case, L)
+    if refusal is not None:
+        ys, good = tube.y0[None, :], 1
+        status, termination = "failed", f"solver failed after z = 0 m of {L:.6g} m (not integrated): {refusal}"
+    else:
+        with np.errstate(all="ignore"):
+            ys, message, good = tube.run_budgeted(tube.y0, zs)
+    if good < len(zs) and status != "failed":
         status = "failed"
         termination = (f"solver failed after z = {zs[good - 1]:.6g} m of {L:.6g} m (2-D model, {rs.points} radial "
-                       f"points): {' '.join(message.split())}; the radial operator may be too stiff or the tube runs "
-                       "away; check the radial parameters and the kinetics, or set design.temperature_limit")
+                       f"points): {_explain_failure(message, case, L)}; in the 2-D model the radial profile may "
+                       "also be too steep for the collocation points (check the radial parameters)")
     zs, ys = zs[:good], ys[:good]
     if status != "failed":
         status, termination, keep = _state_failure(tube, zs, ys)
@@ -80,7 +86,7 @@ def simulate_radial(case, model=None, length=None):
     events = {}
     if status != "failed":
         zs, ys, status, termination = _stops(tube, case, zs, ys, events, status, termination)
-    prof = tube.profiles(zs, ys, True, message)
+    prof = tube.profiles(zs, ys, True, "")
     if status != "failed":
         defect = closure_failure(prof.closure)
         if defect:
@@ -241,7 +247,7 @@ def _hot_spot(tube, case, zs, ys, T, attribute, how, stopped):
         how = "temperature limit: the run stopped there; the true maximum is higher"
     elif 0 < k < len(zs) - 1:
         z_f = np.linspace(zs[k - 1], zs[k + 1], PEAK_POINTS)
-        states, _, good = tube.run(ys[k - 1], z_f)
+        states, _, good = tube.run(ys[k - 1], z_f, mxstep=POST_STEPS)
         if good == PEAK_POINTS:
             T_f = getattr(tube.profiles(z_f, states, False, ""), attribute)
             j = min(max(int(np.argmax(T_f)), 1), PEAK_POINTS - 2)
