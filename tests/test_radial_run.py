@@ -250,6 +250,14 @@ def test_row_without_radial_parameters_says_it_cannot_answer(cases_dir):
     assert "radial_conductivity" in row["design_change_basis"]
 
 
+def test_validate_notes_what_the_row_needs(cases_dir, capsys):
+    from simulator.readiness import check_case
+
+    notes = check_case(cases_dir / "froment1967_oxylene_packed_tube.toml").notes
+    assert any("one_dimensional row needs [bed] radial_conductivity" in n for n in notes)
+    assert not any("one_dimensional" in n for n in check_case(cases_dir / DEMO).notes)
+
+
 def test_row_of_an_adiabatic_bed_does_not_apply(cases_dir):
     from simulator.radial_assumption import applies
 
