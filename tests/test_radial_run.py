@@ -100,6 +100,7 @@ output_points = {output_points}
 """
 
 
+@pytest.mark.published("carslaw_jaeger1959", "series for the cylinder with a surface condition (chapter from memory)")
 @pytest.mark.parametrize("Bi,points,tol", [(1.0, 8, 1e-5), (5.0, 8, 1e-5), (20.0, 8, 1e-5), (5.0, 5, 1e-4)])
 def test_graetz_series_through_a_case_file(write_case, Bi, points, tol):
     # Source: the series solution of plug-flow cooling of a cylinder with a wall (Robin) condition,
@@ -123,6 +124,7 @@ def test_graetz_series_through_a_case_file(write_case, Bi, points, tol):
 
 
 # ------------------------------------------------------------------ 1-D limit
+@pytest.mark.published("froment_bischoff1990", "ch. 11, lumped U of the 2-D model (from memory)")
 def test_large_conductivity_and_wall_coefficient_equal_the_lumped_one_dimensional_tube(cases_dir):
     # limit: 1/U = 1/h_w + R/(4 lambda_er) + 1/U_o (G.F. Froment, K.B. Bischoff, Chemical Reactor Analysis
     # and Design, 2nd ed., Wiley, 1990, ch. 11; from memory): with lambda_er and h_w large the wall Biot
