@@ -31,7 +31,7 @@ from simulator.model.build import build_model
 from simulator.model import kernel as K1
 from simulator.model.heat import arrangement_of
 from simulator.results import Result
-from simulator.solve.checks import closure_failure, closure_warnings, range_warnings
+from simulator.solve.checks import closure_failure, closure_warnings, compressibility_profile, range_warnings
 from simulator.solve.integrate import (PRESSURE_FLOOR, _budget_refusal, _design_numbers, _explain_failure,
                                       model_warnings, references_used, versions)
 from simulator.solve.radial import POST_STEPS, RadialTube
@@ -62,18 +62,18 @@ def simulate_radial(case, model=None, length=None):
     started = time.perf_counter()
     model = model or build_model(case)
     rs = case.radial
-    n = model.n
     L = case.tube.length if length is None else length
     zs = np.linspace(0.0, L, case.solver.output_points)
     tube = RadialTube(model, rs.points, rs.conductivity, rs.diffusivity, rs.wall_coefficient)
     status, termination = "completed", f"end of tube reached at z = {L:.6g} m"
     refusal = _budget_refusal(case, L)
     if refusal is not None:
-        ys, good = tube.y0[None, :], 1
+        ys, good, main_time = tube.y0[None, :], 1, 0.0
         status, termination = "failed", f"solver failed after z = 0 m of {L:.6g} m (not integrated): {refusal}"
     else:
         with np.errstate(all="ignore"):
             ys, message, good = tube.run_budgeted(tube.y0, zs)
+    main_time = time.perf_counter() - started
     if good < len(zs) and status != "failed":
         status = "failed"
         termination = (f"solver failed after z = {zs[good - 1]:.6g} m of {L:.6g} m (2-D model, {rs.points} radial "
@@ -102,6 +102,7 @@ def simulate_radial(case, model=None, length=None):
     notes = list(closure_warnings(prof.closure)) + list(range_warnings(model, ys1))
     notes += model_warnings(model, ys1, zs, hot) + plausibility_warnings(case) + _entrance_warning(tube, hot)
     rise, rise_info = model.adiabatic
+    Z = _compressibility(model, ys1)
     elapsed = time.perf_counter() - started
     radial_block = _radial_block(tube, case, prof)
     stats = {"method": "LSODA (scipy.integrate.odeint), 2-D model by radial orthogonal collocation",
@@ -110,12 +111,13 @@ def simulate_radial(case, model=None, length=None):
              "wall_time_s": round(elapsed, 4)}
     return Result(
         case=case, species=model.species.names, z=zs, F=np.maximum(prof.F_cup, 0.0) * count, T=prof.T_cup,
-        P=prof.P, Tc=Tc, Q=prof.Q * count, Z=np.full(len(zs), np.nan), status=status, termination=termination,
+        P=prof.P, Tc=Tc, Q=prof.Q * count, Z=Z, status=status, termination=termination,
         hot_spot=hot, design=design, closure=prof.closure, warnings=tuple(notes), solver_stats=stats,
-        versions=versions(), references=tuple(references_used(case, model) + ["villadsen_stewart1967"]),
+        versions=versions(),
+        references=tuple(references_used(case, model, bool(np.any(np.isfinite(Z)))) + ["villadsen_stewart1967"]),
         events=events, adiabatic_temperature_rise=rise,
         extra={"adiabatic": rise_info, "viscosity": model.viscosity_note,
-               "timing": {"main_integration_s": elapsed, "total_s": elapsed},
+               "timing": {"main_integration_s": main_time, "total_s": elapsed},
                "critical_sources": dict(zip(model.species.names, model.critical_sources)),
                "radial_profiles": prof,
                "profile_columns": [("centre_line_temperature_K", prof.T_centre),
@@ -124,6 +126,14 @@ def simulate_radial(case, model=None, length=None):
                "summary_blocks": {"cup_mixing_hot_spot": cup_hot, "radial_model": radial_block},
                "summary_lines": [_cup_line(cup_hot), _radial_line(radial_block)]},
     )
+
+
+def _compressibility(model, ys1):
+    """Z of the cup-mixing states (Peng-Robinson, NaN without critical data), as a 1-D run reports it."""
+    try:
+        return compressibility_profile(model, ys1)
+    except (ArithmeticError, ValueError):
+        return np.full(len(ys1), np.nan)
 
 
 def _state_failure(tube, zs, ys):
