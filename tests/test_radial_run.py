@@ -263,6 +263,21 @@ def test_demo_one_dimensional_holds_but_the_radial_row_asks_for_review(cases_dir
     assert row["design_change_percent"] is not None
 
 
+def test_row_is_the_same_whichever_model_the_case_runs(cases_dir):
+    # invariant: "1d" with U_1D and "2d" with the U_o of the same lumping describe one tube, so the row
+    # compares the same two models either way
+    from simulator.assumptions import _change, _conversion_change, _numbers
+    from simulator.radial_assumption import one_dimensional_entry
+
+    rows = []
+    for raw in (_raw(cases_dir), _two_d(_raw(cases_dir))):
+        case = load_case_dict(raw, "row.toml", str(cases_dir))
+        rows.append(one_dimensional_entry(case, simulate(case), _numbers, _change, _conversion_change))
+    assert rows[1]["details"]["lumped_coefficient_W_per_m2_K"] == pytest.approx(65.0, rel=1e-12)
+    assert rows[1]["value"] == pytest.approx(rows[0]["value"], rel=1e-6)
+    assert rows[1]["design_change_percent"] == pytest.approx(rows[0]["design_change_percent"], rel=1e-6)
+
+
 def test_row_without_radial_parameters_says_it_cannot_answer(cases_dir):
     from simulator.assumptions import _change, _conversion_change, _numbers
     from simulator.radial_assumption import one_dimensional_entry

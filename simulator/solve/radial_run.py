@@ -100,7 +100,9 @@ def simulate_radial(case, model=None, length=None):
     along = arrangement_of(case.heat).medium_along
     Tc = along(case.heat, zs) if along else prof.Tc
     notes = list(closure_warnings(prof.closure)) + list(range_warnings(model, ys1))
-    notes += model_warnings(model, ys1, zs, hot) + plausibility_warnings(case) + _entrance_warning(tube, hot)
+    # an interior centre-line maximum is what the 1-D checks call an event maximum (hot spot near the inlet)
+    interior = dict(hot, located_by="event dT/dz = 0") if hot["located_by"] == CENTRE_LINE else hot
+    notes += model_warnings(model, ys1, zs, interior) + plausibility_warnings(case) + _entrance_warning(tube, hot)
     rise, rise_info = model.adiabatic
     Z = _compressibility(model, ys1)
     elapsed = time.perf_counter() - started
