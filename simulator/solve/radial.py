@@ -120,6 +120,7 @@ class RadialTube:
         self.atol = np.concatenate([np.tile(sc[:n], points), np.full(points, sc[n]), sc[n + 1:n + 4]]) * atol_scale
         self.hmax = case.solver.max_step
         self.nfev = 0
+        self.steps = 0          # steps of the main integration (run_budgeted)
         self.centre = _grid(points)[1]
         self.bi = _biot(self.args[4])
 
@@ -147,6 +148,7 @@ class RadialTube:
         output point reached); returns (states, message, outputs reached)."""
         ys, info = _integrate_budgeted(_CountedRuns(self), y0, zs)
         ys = np.asarray(ys)
+        self.steps = int(np.max(info["nst"])) if len(info["nst"]) else 0
         message = info["message"]
         finite = np.all(np.isfinite(ys), axis=1)
         if message == SUCCESS and finite.all():

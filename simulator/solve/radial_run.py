@@ -32,8 +32,8 @@ from simulator.model import kernel as K1
 from simulator.model.heat import arrangement_of
 from simulator.results import Result
 from simulator.solve.checks import closure_failure, closure_warnings, compressibility_profile, range_warnings
-from simulator.solve.integrate import (PRESSURE_FLOOR, _budget_refusal, _design_numbers, _explain_failure,
-                                      model_warnings, references_used, versions)
+from simulator.solve.integrate import (PRESSURE_FLOOR, RUN_STEP_BUDGET, _budget_refusal, _design_numbers,
+                                      _explain_failure, model_warnings, references_used, versions)
 from simulator.solve.radial import POST_STEPS, RadialTube
 from simulator.units import R as R_GAS
 
@@ -110,7 +110,7 @@ def simulate_radial(case, model=None, length=None):
     stats = {"method": "LSODA (scipy.integrate.odeint), 2-D model by radial orthogonal collocation",
              "kernel": "compiled (numba)", "rtol": tube.rtol, "atol_scale": case.solver.atol_scale,
              "output_points": int(len(zs)), "radial_points": rs.points, "rhs_evaluations": tube.nfev,
-             "wall_time_s": round(elapsed, 4)}
+             "steps_main_integration": tube.steps, "step_budget": RUN_STEP_BUDGET, "wall_time_s": round(elapsed, 4)}
     return Result(
         case=case, species=model.species.names, z=zs, F=np.maximum(prof.F_cup, 0.0) * count, T=prof.T_cup,
         P=prof.P, Tc=Tc, Q=prof.Q * count, Z=Z, status=status, termination=termination,
@@ -337,4 +337,5 @@ def _cup_line(cup):
 
 def _radial_line(block):
     return (f"  2-D model         {block['points']} radial points, wall Biot number {block['wall_biot_number']:.3g}, "
-            f"1/U_total = 1/h_w + 1/U = 1/{block['wall_to_medium_coefficient_W_per_m2_K']:.4g} W/(m^2*K)")
+            f"wall to medium U_total = {block['wall_to_medium_coefficient_W_per_m2_K']:.4g} W/(m^2*K) "
+            "(1/U_total = 1/h_w + 1/U)")
