@@ -540,9 +540,26 @@ def m_geometry(raw, rng):
     return f"{'.'.join(key)} = {node[key[-1]]!r}"
 
 
+def m_radial(raw, rng):
+    """The 2-D radial model: switch it on or off, points, radial bed parameters (valid and not)."""
+    model = _table(raw, "model")
+    model["radial"] = rng.choice(("2d", "2d", "1d", "3d", "2D"))
+    if rng.random() < 0.5:
+        model["radial_points"] = rng.choice((1, 3, 5, 8, 9, 0, 2.5, "5"))
+    if "bed" in raw and rng.random() < 0.8:
+        bed = raw["bed"]
+        for key, values in (("radial_conductivity", ("0.9 W/(m*K)", "1e-9 W/(m*K)", "1e3 W/(m*K)", "-1 W/(m*K)",
+                                                     "0.9 W/(m^2*K)")),
+                            ("radial_diffusivity", ("3e-4 m^2/s", "1e-8 m^2/s", "1 m^2/s", "3e-4 m/s")),
+                            ("wall_coefficient", ("120 W/(m^2*K)", "1e-2 W/(m^2*K)", "1e5 W/(m^2*K)", "0 W/(m^2*K)"))):
+            if rng.random() < 0.9:
+                bed[key] = rng.choice(values)
+    return f"model = {model}, bed = {raw.get('bed')}"[:200]
+
+
 #: Mutations that mostly keep the case valid but push it to extremes (they exercise the solver).
 SOFT_MUTATIONS = (m_orders, m_equation, m_heat, m_eos, m_solver, m_design, m_tube_count, m_feed_fractions,
-                  m_kinetics, m_hougen_watson, m_custom_thermo, m_pressure_drop, m_geometry)
+                  m_kinetics, m_hougen_watson, m_custom_thermo, m_pressure_drop, m_geometry, m_radial)
 #: Mutations that mostly make the case invalid (they exercise the loader's messages).
 HARD_MUTATIONS = (m_drop_key, m_scale_number, m_change_unit, m_swap_value, m_change_type, m_deep_nesting,
                   m_huge_array, m_species_name, m_key_species, m_unknown_key)

@@ -20,6 +20,8 @@ Thresholds (overridable in the case's ``[assumptions]`` table):
   in total moles per mole of key species of the reaction that consumes it most —
   common practice, no source (the expansion factor itself is the classical one,
   Levenspiel 1999, ch. 3).
+* ``one_dimensional`` (packed beds only): the centre-line hot-spot rise of the 2-D model against
+  the 1-D one, see :mod:`simulator.radial_assumption`.
 """
 import dataclasses
 import math
@@ -27,6 +29,7 @@ import math
 import numpy as np
 
 from simulator.model.build import build_model
+from simulator.radial_assumption import one_dimensional_entry
 from simulator.solve.integrate import simulate
 from simulator.solve.target_length import length_by_resolving, moves_with_length
 from simulator.units import R
@@ -171,6 +174,9 @@ def check_assumptions(case):
                                        "5 % (common practice)" if th.constant_moles == 0.05
                                        else "case [assumptions] table")
     entries["constant_moles"]["epsilon"] = eps
+    # one-dimensional tube (packed beds): the 2-D model of the same case (simulator.radial_assumption)
+    if case.bed is not None:
+        entries["one_dimensional"] = one_dimensional_entry(case, full_result, _numbers, _change, _conversion_change)
 
     key, name = _design_quantity(case)
     return null_where_not_finite({

@@ -62,6 +62,7 @@ def print_summary(result, stream=None):
         f"{_f(o['temperature_K'], '.2f', ' K')}   P = {_f(pressure, '.4f', ' bar')}   (z = {_f(o['position_m'], '.4g', ' m')})",
         hot,
     ]
+    lines += result.extra.get("summary_lines", [])     # e.g. the 2-D model's cup-mixing maximum
     if d["target_conversion"] is not None:
         if d["reached"] and d["length_m"] is None:
             lines.append(f"  target X = {d['target_conversion']:.4g}    met at the outlet of this tube; "

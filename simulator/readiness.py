@@ -90,6 +90,9 @@ def check_case(path):
         what = f"adiabatic rise {rise:+.4g} K" if math.isfinite(rise) else "no adiabatic path to complete conversion"
         notes.append(f"screen: no exothermic path for the key species {case.design.key_species} ({what}); runaway "
                      "screening does not apply.")
+    if case.bed is not None and case.heat.exchange and not case.radial.given:
+        notes.append("assumptions: the one_dimensional row needs [bed] radial_conductivity, radial_diffusivity and "
+                     "wall_coefficient (not given); it says \"not checked\" without them.")
     if entries is None:
         notes.append("uncertainty needs [[uncertainty]] entries (none given).")
     return Readiness(case=case, warnings=plausibility_warnings(case), notes=notes)

@@ -35,6 +35,8 @@ REFERENCES = {
                      "Computing, IMACS Trans., vol. 1, pp. 55-64, 1983; L. Petzold, \"Automatic selection of "
                      "methods for solving stiff and nonstiff systems of ODEs,\" SIAM J. Sci. Stat. Comput., "
                      "vol. 4, pp. 136-148, 1983 (LSODA, via scipy.integrate.odeint).",
+    "villadsen_stewart1967": "J.V. Villadsen, W.E. Stewart, \"Solution of boundary-value problems by orthogonal "
+                             "collocation,\" Chem. Eng. Sci., vol. 22, no. 11, pp. 1483-1501, 1967.",
     "semenov1928": "N.N. Semenov, \"Zur Theorie des Verbrennungsprozesses,\" Z. Phys., vol. 48, pp. 571-582, 1928.",
     "barkelew1959": "C.H. Barkelew, \"Stability of chemical reactors,\" Chem. Eng. Prog. Symp. Ser., vol. 55, "
                     "no. 25, pp. 37-46, 1959.",

@@ -138,6 +138,7 @@ class Result:
             **self._steady_states_block(),
             **self._wall_block(),
             **self._network_block(),
+            **self.extra.get("summary_blocks", {}),     # e.g. the 2-D model's (simulator.solve.radial_run)
         }
 
     def _warnings_with_network(self):
@@ -246,4 +247,8 @@ class Result:
                 row += [wall[c][k] for c in WALL_COLUMNS]
             row += [network[c][k] for c in network]
             rows.append(row)
+        for name, values in self.extra.get("profile_columns", ()):   # e.g. the 2-D model's temperatures
+            header.append(name)
+            for row, value in zip(rows, values):
+                row.append(value)
         return header, rows

@@ -65,6 +65,7 @@ DIMENSIONS = {
     "thermal_conductivity": "[mass] * [length] / [time] ** 3 / [temperature]",
     "fouling_resistance": "[time] ** 3 * [temperature] / [mass]",
     "velocity": "[length] / [time]",
+    "diffusivity": "[length] ** 2 / [time]",
 }
 
 #: SI unit text of each named dimension (for messages).
@@ -75,6 +76,7 @@ SI_UNITS = {
     "density": "kg/m^3", "viscosity": "Pa*s", "heat_transfer_coefficient": "W/(m^2*K)",
     "temperature_difference": "K", "thermal_conductivity": "W/(m*K)", "fouling_resistance": "m^2*K/W",
     "velocity": "m/s",
+    "diffusivity": "m^2/s",
 }
 
 _EXAMPLES = {
@@ -96,6 +98,7 @@ _EXAMPLES = {
     "thermal_conductivity": '"16 W/(m*K)"',
     "fouling_resistance": '"2e-4 m^2*K/W"',
     "velocity": '"0.8 m/s"',
+    "diffusivity": '"3e-4 m^2/s"',
 }
 
 

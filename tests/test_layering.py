@@ -22,7 +22,7 @@ LAYERS = [
     ("model", "results", "network", "network_results"),
     ("solve", "output", "train_output"),
     ("sweeps",),
-    ("screening", "assumptions", "sizing", "readiness", "train_checks", "train_sizing"),
+    ("screening", "assumptions", "radial_assumption", "sizing", "readiness", "train_checks", "train_sizing"),
     ("report",),
     ("cli", "__main__", "__init__"),
 ]

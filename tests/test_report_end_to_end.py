@@ -248,7 +248,7 @@ def test_assumption_levels_in_the_report_are_the_json_levels(reports, name):
     from simulator.assumptions import check_assumptions
 
     labels = {"isothermal": "Isothermal", "isobaric": "Isobaric", "ideal_gas": "Ideal gas",
-              "constant_moles": "Constant moles"}
+              "constant_moles": "Constant moles", "one_dimensional": "One-dimensional tube"}
     flags = {label: word for word, label, _ in _flags(_section(reports[name][0], "summary"))}
     report = check_assumptions(load_case(ROOT / "cases" / name))
     for key, entry in report["assumptions"].items():

@@ -41,6 +41,9 @@ RANGES = {
     "heat.coefficient.shell.viscosity": (1.0e-6, 10.0),     # [Pa*s]
     "heat.coefficient.shell.conductivity": (1.0e-3, 1000.0),  # [W/(m*K)]
     "heat.coefficient.shell.cp": (100.0, 1.0e5),            # [J/(kg*K)]
+    "bed.radial_conductivity": (1.0e-3, 1.0e3),             # [W/(m*K)]
+    "bed.radial_diffusivity": (1.0e-8, 1.0),                # [m^2/s]
+    "bed.wall_coefficient": (1.0e-2, 1.0e5),                # [W/(m^2*K)]
     "heat.medium.mass_flow": (1.0e-6, 1.0e6),               # [kg/s] whole bundle
     "heat.medium.cp": (100.0, 1.0e5),                       # [J/(kg*K)]
     "pressure_drop.viscosity": (1.0e-7, 1.0e-2),            # [Pa*s]

@@ -20,6 +20,7 @@ from simulator.case.schema import (
     Reaction, SolverOptions, Thermo, Tube,
 )
 from simulator.case.liquid import liquid_density_law, liquid_problems
+from simulator.case.radial_keys import BED_KEYS as RADIAL_BED_KEYS, radial_settings
 from simulator.errors import CaseError, ThermoError, UnitError
 from simulator.thermo.species_data import near, resolve_species_file, species_in_file
 from simulator.units import SI_UNITS, is_normal_volume, parse_quantity
@@ -28,7 +29,7 @@ NAN = float("nan")
 
 KEYS = {
     "": {"title", "source", "description", "thermo", "reactions", "feed", "tube", "bed", "heat",
-         "pressure_drop", "design", "solver", "assumptions", "uncertainty", "train"},
+         "pressure_drop", "design", "solver", "assumptions", "uncertainty", "train", "model"},
     "thermo": {"species_file", "equation_of_state", "custom", "critical", "density", "density_at",
                "expansion_coefficient"},
     "thermo.custom.*": {"molar_mass", "cp", "enthalpy_of_formation", "standard_entropy",
@@ -39,7 +40,7 @@ KEYS = {
     "reactions.*.inhibition.*": {"species", "pre_exponential", "heat_of_adsorption"},
     "feed": {"temperature", "pressure", "molar_flow", "mass_flow", "volumetric_flow", "mole_fractions"},
     "tube": {"length", "inner_diameter", "count", "roughness"},
-    "bed": {"particle_diameter", "void_fraction", "bulk_density"},
+    "bed": {"particle_diameter", "void_fraction", "bulk_density"} | set(RADIAL_BED_KEYS),
     "heat": {"mode", "overall_coefficient", "coefficient", "medium"},
     "heat.medium": {"arrangement", "temperature", "mass_flow", "cp", "profile"},
     "heat.medium.profile.*": {"position", "temperature", "heat_flux"},
@@ -277,6 +278,7 @@ def load_case_dict(raw, source_path="", case_dir=None):
     design = _design(ck, raw)
     solver = _solver(ck, raw)
     thresholds = _thresholds(ck, raw)
+    radial = radial_settings(ck, raw)                  # [model] and the radial [bed] keys
     for i, entry in enumerate(raw.get("uncertainty", []) if isinstance(raw.get("uncertainty", []), list) else []):
         ck.keys(entry, KEYS["uncertainty.*"], f"uncertainty.{i}")
 
@@ -309,7 +311,8 @@ def load_case_dict(raw, source_path="", case_dir=None):
         raise CaseError(ck.problems)
     return Case(title=title.strip(), source_path=source_path, thermo=thermo, reactions=tuple(reactions),
                 feed=feed, tube=tube, heat=heat, pressure_drop=pdrop, design=design, bed=bed, solver=solver,
-                assumptions=thresholds, species=tuple(species), raw=raw, source=str(raw.get("source", "")))
+                assumptions=thresholds, species=tuple(species), raw=raw, source=str(raw.get("source", "")),
+                radial=radial)
 
 
 def _check_sizes(ck, raw, feed, tube, bed, solver):

@@ -11,6 +11,8 @@ import math
 from dataclasses import dataclass, field
 from typing import Literal, Optional
 
+from simulator.case.radial_keys import RadialSettings
+
 EquationOfState = Literal["ideal-gas", "peng-robinson", "liquid"]
 HeatMode = Literal["isothermal", "adiabatic", "exchange"]
 MediumArrangement = Literal["", "uniform", "co-current", "counter-current", "wall-profile"]
@@ -226,6 +228,7 @@ class Case:
     raw: dict = field(default_factory=dict, compare=False, repr=False)  # the case as written
     source: str = ""                     # source key of published data, if any
     train: tuple = ()                    # TrainBed entries of a reactor train (see simulator.case.train)
+    radial: RadialSettings = field(default_factory=RadialSettings)   # [model] radial (simulator.case.radial_keys)
 
 
 InterstageKind = Literal["cool-to", "heat-to", "quench"]

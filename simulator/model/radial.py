@@ -196,6 +196,21 @@ def rhs(z, y, N, A, B, w, rp, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, d
             hdF += K1._h_RT(nasa[i], Tk) * R * Tk * dydz[k * n + i]
         dydz[nF + k] = (area * lam / (Rt * Rt) * lapT - hdF) / cpt
     # pressure: the 1-D kernel's law on the cup-mixing state (its other derivatives are not used)
+    if ip[K1.I_DP] == K1.DP_NONE:
+        dydz[nF + N] = 0.0
+    else:
+        dydz[nF + N] = _pressure_gradient(z, Fm, Tm, P, Tc, n, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit)
+    qw = heff * math.pi * 2.0 * Rt * (Tc - Tw)
+    if ip[K1.I_HEAT] == K1.HEAT_FLOWING:
+        dydz[nF + N + 1] = -qw / fp[K1.F_MCP]
+    else:
+        dydz[nF + N + 1] = 0.0
+    dydz[nF + N + 2] = qw
+
+
+@njit(cache=True)
+def _pressure_gradient(z, Fm, Tm, P, Tc, n, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit):
+    """dP/dz of the 1-D kernel on the cup-mixing state, [Pa/m]."""
     y1 = np.empty(n + 4)
     for i in range(n):
         y1[i] = Fm[i]
@@ -205,13 +220,50 @@ def rhs(z, y, N, A, B, w, rp, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, d
     y1[n + 3] = 0.0
     d1 = np.empty(n + 4)
     K1.rhs(z, y1, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, d1)
-    dydz[nF + N] = d1[n + 1]
-    qw = heff * math.pi * 2.0 * Rt * (Tc - Tw)
-    if ip[K1.I_HEAT] == K1.HEAT_FLOWING:
-        dydz[nF + N + 1] = -qw / fp[K1.F_MCP]
-    else:
-        dydz[nF + N + 1] = 0.0
-    dydz[nF + N + 2] = qw
+    return d1[n + 1]
+
+
+@njit(cache=True)
+def section_temperatures(ys, n, N, A, w, centre, bi, nasa, ip, crit):
+    """Bed-at-wall, cup-mixing and centre-line temperatures of states ys (rows), [K].
+
+    The cup-mixing temperature is the one at which the cup-mixing flows carry the Gauss-weighted
+    enthalpy flow of the points (Newton, from the weighted mean temperature).
+    """
+    nz = ys.shape[0]
+    nF = N * n
+    T_wall = np.empty(nz)
+    T_cup = np.empty(nz)
+    T_centre = np.empty(nz)
+    Fm = np.empty(n)
+    for q in range(nz):
+        y = ys[q]
+        Tc = y[nF + N + 1]
+        P = y[nF + N]
+        Tw = wall_values(y[:nF], y[nF:nF + N], Tc, n, N, A, bi)[1]
+        T_wall[q] = Tw
+        H = 0.0
+        Tm = 0.0
+        Fm[:] = 0.0
+        for k in range(N):
+            H += w[k] * K1.enthalpy_flow(y[k * n:(k + 1) * n], y[nF + k], P, nasa, ip, crit)
+            Tm += w[k] * y[nF + k]
+            for i in range(n):
+                Fm[i] += w[k] * y[k * n + i]
+        T = Tm
+        for _ in range(50):
+            f = K1.enthalpy_flow(Fm, T, P, nasa, ip, crit) - H
+            d = (K1.enthalpy_flow(Fm, T + 1e-3, P, nasa, ip, crit) - H - f) / 1e-3
+            step = f / d
+            T -= step
+            if abs(step) < 1e-10 * T:
+                break
+        T_cup[q] = T
+        s = centre[N] * Tw
+        for k in range(N):
+            s += centre[k] * y[nF + k]
+        T_centre[q] = s
+    return T_wall, T_cup, T_centre
 
 
 @njit(cache=True)
@@ -228,7 +280,7 @@ def _refresh_cache():
     from simulator.model.jit_cache import refresh_if_sources_changed
     from simulator.thermo import nasa7
 
-    compiled = [wall_values, rhs, rhs_odeint]
+    compiled = [wall_values, _pressure_gradient, rhs, section_temperatures, rhs_odeint]
     if not os.environ.get("NUMBA_DISABLE_JIT"):
         refresh_if_sources_changed("radial", compiled, [__file__, K1.__file__, nasa7.__file__])
 

@@ -52,7 +52,7 @@ CLOSURE_OK = 1e-6
 
 
 _ASSUMPTION_LABELS = {"isothermal": "Isothermal", "isobaric": "Isobaric", "ideal_gas": "Ideal gas",
-                      "constant_moles": "Constant moles"}
+                      "constant_moles": "Constant moles", "one_dimensional": "One-dimensional tube"}
 
 
 def _temperature_scale(case):

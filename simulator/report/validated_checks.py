@@ -375,6 +375,20 @@ CHECKS = ({'key': 'levenspiel1999',
               '(Ergun) pressure gradients against an independent open-source implementation',
   'where': 'fluids.friction.Haaland (docstring example 1e5, 1e-4)',
   'test': 'tests/test_pressure_drop.py::test_haaland_against_fluids_and_close_to_colebrook'},
+ {'key': 'carslaw_jaeger1959',
+  'citation': 'H.S. Carslaw, J.C. Jaeger, Conduction of Heat in Solids, 2nd ed., Oxford University Press, '
+              '1959',
+  'compared': 'Centre-line and cup-mixing temperatures of the two-dimensional model of a packed tube cooled '
+              'through a wall coefficient, without reaction, against the exact series solution '
+              '(Bessel-function roots), at three wall Biot numbers',
+  'where': 'series for the cylinder with a surface condition (chapter from memory)',
+  'test': 'tests/test_radial_run.py::test_graetz_series_through_a_case_file'},
+ {'key': 'froment_bischoff1990',
+  'citation': 'G.F. Froment, K.B. Bischoff, Chemical Reactor Analysis and Design, 2nd ed., Wiley, 1990',
+  'compared': 'The two-dimensional model with a large radial conductivity and wall coefficient against the '
+              'one-dimensional model with the lumped overall coefficient (hot-spot rise, outlet conversion)',
+  'where': 'ch. 11, lumped U of the 2-D model (from memory)',
+  'test': 'tests/test_radial_run.py::test_large_conductivity_and_wall_coefficient_equal_the_lumped_one_dimensional_tube'},
  {'key': 'peng_robinson1976',
   'citation': "D.-Y. Peng, D.B. Robinson, 'A new two-constant equation of state', Ind. Eng. Chem. Fundam. "
               '15(1), 59-64, 1976',
@@ -634,6 +648,16 @@ CHECKS = ({'key': 'levenspiel1999',
   'where': 'boundary on a sweep grid of the Froment (1967) tube; 0.01777 atm from an independent '
            'reproduction',
   'test': 'tests/test_sweep_cli.py::test_sweep_boundary_matches_the_morbidelli_varma_critical_value'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport',
+  'where': "equilibrate('TP') of N2/H2/NH3 (gri30 thermo, ideal gas)",
+  'test': 'tests/test_temkin.py::test_temkin_rate_vanishes_at_the_equilibrium_cantera_computes'},
  {'key': 'coolprop',
   'citation': "I.H. Bell, J. Wronski, S. Quoilin, V. Lemort, 'Pure and pseudo-pure fluid thermophysical "
               "property evaluation and the open-source thermophysical property library CoolProp', Ind. Eng. "

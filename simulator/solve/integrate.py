@@ -413,6 +413,11 @@ def simulate(case, model=None, length=None):
 
         raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is not one tube; it runs through "
                         "simulator.solve.train.simulate_train (tubesim run).")
+    if case.radial.two_dimensional and case.heat.exchange and case.bed is not None:
+        # [model] radial = "2d" (an isothermal or adiabatic variant of it has no radial gradient: 1-D)
+        from simulator.solve.radial_run import simulate_radial
+
+        return simulate_radial(case, model, length)
     with np.errstate(all="ignore"):
         if case.heat.exchange and arrangement_of(case.heat).boundary_value:
             from simulator.solve.counter_current import simulate_counter_current

@@ -2,8 +2,8 @@
 
 Started in the background by :func:`simulator.model.kernels.warm_in_background` on a
 cold cache; safe to run by hand (e.g. in a container build step). It solves a small
-built-in case of its own (invented data) on both equations of state so that every
-function a run needs is compiled with the argument types real runs use.
+built-in case of its own (invented data) on both equations of state, and its 2-D (radial)
+model, so that every function a run needs is compiled with the argument types real runs use.
 """
 import sys
 
@@ -48,6 +48,11 @@ def main():
         K.pr_phase_profile(np.ascontiguousarray(ys[:, n]), np.ascontiguousarray(ys[:, n + 1]),
                            np.ascontiguousarray(np.clip(ys[:, :n], 0, None)), model.args[9])
         K.wall_columns(zs, np.ascontiguousarray(ys), *model.args[:4])
+    # the 2-D (radial) kernel, which has no plain-Python twin: compiled here so a first 2-D run need not wait
+    from simulator.solve.radial import solve_radial
+
+    model = build_model(load_case_dict(copy.deepcopy(CASE)))
+    solve_radial(model, 3, 1.0, 1e-4, 100.0, np.linspace(0.0, 1.0, 11))
     return 0
 
 

@@ -118,6 +118,8 @@ def unsupported_reason(paths, model=None):
                 "case by shooting (not by the compiled batch integrator)")
     if case is not None and case.heat.arrangement == "wall-profile":
         return 'heat.medium.arrangement = "wall-profile": a given profile table, solved per case'
+    if case is not None and case.radial.two_dimensional:
+        return 'model.radial = "2d": the 2-D model is solved per case (not by the compiled batch integrator)'
     if case is not None and case.thermo.equation_of_state == "liquid":
         return 'thermo.equation_of_state = "liquid": solved per case (not by the compiled batch integrator)'
     for path in paths:
