@@ -42,12 +42,12 @@ def compiled_supported(model, paths):
 
 def _guards(model, y0):
     """Runaway guard temperature of every case from its inlet state, [K]."""
-    from simulator.sweeps.evaluator import runaway_guard
+    from simulator.sweeps.evaluator import guard_from_rise, guard_rise
 
     n = model.n
-    feeds, inverse = np.unique(y0[:, :n + 3], axis=0, return_inverse=True)   # flows, T, P, medium T
-    guard = np.array([runaway_guard(model, row[:n], row[n], row[n + 2]) for row in feeds])
-    return guard[np.asarray(inverse).ravel()]
+    feeds, inverse = np.unique(y0[:, :n + 1], axis=0, return_inverse=True)   # flows, T: the rise is the feed's
+    rise = np.array([guard_rise(model, row[:n], row[n]) for row in feeds], dtype=float)
+    return guard_from_rise(rise[np.asarray(inverse).ravel()], y0[:, n], y0[:, n + 2])
 
 
 def run_compiled_sweep(base_raw, case_dir, vary, model, out_dir, progress=True, scheduler=None, chunk=None):
