@@ -71,9 +71,11 @@ def test_grid_sweep_on_dask_stores_the_rows_of_the_local_compiled_run(cases_dir,
     # 7 chunks of at most 60 cases, finishing in any order on the two workers
     assert main(argv + ["--out", str(tmp_path / "dask"), "--scheduler", cluster.scheduler_address,
                         "--batch-size", "60"]) == 0
-    printed = capsys.readouterr().out
+    captured = capsys.readouterr()
+    printed = captured.out
     assert f"(compiled engine on Dask at {cluster.scheduler_address})" in printed
     assert "400 computed now" in printed and "on 2 threads" in printed
+    assert "dask: 2 worker(s), 2 thread(s) ready in" in captured.err      # the warm-up is said, not silent
     local = (tmp_path / "local" / "results.csv").read_text()
     assert local == (tmp_path / "dask" / "results.csv").read_text()
     hot = [float(row["hot_spot_temperature_K"]) for row in _rows(tmp_path / "local" / "results.csv")]

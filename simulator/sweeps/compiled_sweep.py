@@ -140,7 +140,7 @@ def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, labe
     if scheduler is not None:
         from simulator.sweeps.dask_compiled import DaskChunks
 
-        runner = DaskChunks(scheduler, chunk=chunk)
+        runner = DaskChunks(scheduler, chunk=chunk, announce=bool(progress))
     else:
         runner = LocalChunks()
     counts = {"failed": 0, "invalid": 0}

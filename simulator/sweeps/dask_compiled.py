@@ -42,6 +42,7 @@ same command resumes); a task that fails outside the per-case handling (a worker
 cannot import tubesim, a lost connection) likewise.
 """
 import math
+import sys
 import time
 
 from simulator.sweeps.compiled_sweep import chunk_params, solve_chunk
@@ -152,6 +153,9 @@ class DaskChunks:
         Scheduler address, e.g. ``"tcp://10.0.0.5:8786"``.
     chunk : int, optional
         Fixed cases per task; default :func:`chunk_size` from a measured first chunk.
+    announce : bool
+        Say on stderr when the warm-up starts and how long it took (it may take a minute on
+        cold workers, before any progress).
 
     Attributes
     ----------
@@ -161,15 +165,16 @@ class DaskChunks:
         What :func:`warm_worker` returned on each worker.
     """
 
-    def __init__(self, address, chunk=None):
+    def __init__(self, address, chunk=None, announce=False):
         self.address = address
         self.chunk = chunk
+        self.announce = announce
         self.tasks = 0
         self.largest = 0
         self.threads = 0
         self.warmup = []
         self._client = None
-        self._futures = []
+        self._futures = set()   # submitted and not yet collected (a collected result is released)
 
     def _connect(self):
         client = self._client = dask_client(self.address)
@@ -181,9 +186,16 @@ class DaskChunks:
         self.threads = sum(client.nthreads().values()) or 1
         return client
 
+    def _say(self, text):
+        if self.announce:
+            print(text, file=sys.stderr, flush=True)
+
     def _result(self, future, chunk):
         try:
-            return future.result()
+            result = future.result()
+            self._futures.discard(future)
+            future.release()
+            return result
         except Exception as err:  # noqa: BLE001 - KilledWorker, CommClosedError, an import error on the worker
             died = type(err).__name__ == "KilledWorker"
             what = "a worker died while computing" if died else "a task failed outside the per-case handling of"
@@ -196,7 +208,7 @@ class DaskChunks:
         self.largest = max(self.largest, len(chunk))
         future = client.submit(_solve_on_worker, model_future, chunk_params(chunk, paths), paths, str(case_dir),
                                pure=False, **where)
-        self._futures.append(future)
+        self._futures.add(future)
         return future
 
     def solve(self, model, cases, paths, case_dir):
@@ -208,11 +220,17 @@ class DaskChunks:
         client = self._connect()
         model_future = client.scatter(model, broadcast=True, hash=False)
         first = chunk_params(cases[:1], paths)
+        workers = list(client.scheduler_info()["workers"])
+        self._say(f"dask: loading or compiling numba's caches on {len(workers)} worker(s) before the first chunk")
+        started = time.perf_counter()
         warm = [client.submit(warm_worker, model_future, first, paths, str(case_dir), pure=False,
                               workers=[address], allow_other_workers=False)
-                for address in client.scheduler_info()["workers"]]
-        self._futures.extend(warm)
+                for address in workers]
+        self._futures.update(warm)
         self.warmup = [self._result(future, cases[:1]) for future in warm]
+        cold = sum(w["kernel_was_cold"] for w in self.warmup)
+        self._say(f"dask: {len(workers)} worker(s), {self.threads} thread(s) ready in "
+                  f"{time.perf_counter() - started:.1f} s" + (f" ({cold} compiled the kernel)" if cold else ""))
         rest = cases
         size = self.chunk
         if size is None:
