@@ -142,3 +142,15 @@ def test_uncertainty_on_dask_with_the_pool_engine_says_so(cases_dir, tmp_path, c
                  "--out", str(tmp_path / "pool"), "--scheduler", cluster.scheduler_address]) == 0
     data = json.loads((tmp_path / "pool" / "uncertainty.json").read_text())
     assert (data["engine"], data["run"]["scheduler"]) == ("pool", cluster.scheduler_address)
+
+
+def test_a_finished_run_resumed_with_a_scheduler_contacts_none(cases_dir, tmp_path, capsys):
+    # the store already holds every case: nothing is sent, so not even an address that answers is needed
+    argv = ["sweep", str(cases_dir / OXYLENE), "--vary", "heat.medium.temperature=620 K..640 K in 5",
+            "--out", str(tmp_path / "run")]
+    assert main(argv) == 0
+    before = (tmp_path / "run" / "results.csv").read_text()
+    capsys.readouterr()
+    assert main(argv + ["--scheduler", "tcp://127.0.0.1:9"]) == 0
+    assert "0 computed now, 5 already done" in capsys.readouterr().out
+    assert (tmp_path / "run" / "results.csv").read_text() == before
