@@ -206,7 +206,7 @@ def solve_chunk(model, params, paths, case_dir, threads=None):
     t0 = time.perf_counter()
     packed = fast.pack_cases(model, params, paths)
     out = fast.batch_solve(model, params, paths, rtol=SWEEP_RTOL, temperature_limit=_guards(model, packed.y0),
-                           case_dir=str(case_dir), threads=threads)
+                           case_dir=str(case_dir), threads=threads, packed=packed)
     result = {name: out[name] for name in CHUNK_FIELDS}
     result["seconds"] = time.perf_counter() - t0
     return result
