@@ -19,7 +19,8 @@ How a run goes (:class:`DaskChunks`):
    numba's on-disk caches of the sweep integrator and of the kernel before any chunk
    runs, so no chunk waits on the compiler (a cold worker spent 49 s compiling inside
    its first task, reference notes section 7). It runs in the worker's task thread,
-   not in its event loop, so the worker keeps answering the scheduler meanwhile.
+   not in its event loop. One worker per host goes first (:func:`warmup_waves`): the
+   others on that host then load what it compiled instead of compiling it too.
 3. A first chunk of :data:`PROBE_CHUNK` cases measures the cost of one case on this
    case and cluster (progress shows at once); the rest is split by :func:`chunk_size`.
 
@@ -41,6 +42,7 @@ A worker that dies stops the run with one line (the chunks already stored stay; 
 same command resumes); a task that fails outside the per-case handling (a worker that
 cannot import tubesim, a lost connection) likewise.
 """
+import asyncio
 import math
 import sys
 import time
@@ -139,6 +141,35 @@ def warm_worker(model, params, paths, case_dir):
             "cache_dir": str(numba.config.CACHE_DIR or "")}
 
 
+def warmup_waves(hosts):
+    """Workers to warm in turn: first one per host, then the rest.
+
+    Workers on one host usually share numba's cache folder; the first compiles what is
+    missing and the others then only load it, instead of all compiling the same code at
+    once on the same cores.
+
+    Parameters
+    ----------
+    hosts : dict
+        ``{worker address: host}``.
+
+    Returns
+    -------
+    list of list of str
+        One or two waves of worker addresses.
+
+    Examples
+    --------
+    >>> warmup_waves({"tcp://a:1": "a", "tcp://a:2": "a", "tcp://b:1": "b"})
+    [['tcp://a:1', 'tcp://b:1'], ['tcp://a:2']]
+    """
+    first, rest, seen = [], [], set()
+    for address, host in hosts.items():
+        (rest if host in seen else first).append(address)
+        seen.add(host)
+    return [wave for wave in (first, rest) if wave]
+
+
 def _solve_on_worker(model, params, paths, case_dir):
     """Task body: one chunk on one numba thread."""
     return solve_chunk(model, params, paths, case_dir, threads=NUMBA_THREADS_PER_TASK)
@@ -190,16 +221,18 @@ class DaskChunks:
         if self.announce:
             print(text, file=sys.stderr, flush=True)
 
-    def _result(self, future, chunk):
+    def _result(self, future, chunk, task=None):
         try:
             result = future.result()
             self._futures.discard(future)
             future.release()
             return result
-        except Exception as err:  # noqa: BLE001 - KilledWorker, CommClosedError, an import error on the worker
+        except (Exception, asyncio.CancelledError) as err:  # noqa: BLE001 - KilledWorker, a lost scheduler, an
+            # import error on the worker; a future the scheduler cancelled raises a BaseException
             died = type(err).__name__ == "KilledWorker"
+            task = task or f"cases {chunk[0][0]}..{chunk[-1][0]}"
             what = "a worker died while computing" if died else "a task failed outside the per-case handling of"
-            raise SweepError(f"{what} cases {chunk[0][0]}..{chunk[-1][0]} ({one_line_error(err)}); the finished "
+            raise SweepError(f"{what} {task} ({one_line_error(err)}); the finished "
                              "chunks are stored: check the workers (each must import tubesim and read the case "
                              "folder), then rerun with the same --out to resume") from err
 
@@ -220,14 +253,16 @@ class DaskChunks:
         client = self._connect()
         model_future = client.scatter(model, broadcast=True, hash=False)
         first = chunk_params(cases[:1], paths)
-        workers = list(client.scheduler_info()["workers"])
+        info = client.scheduler_info()["workers"]
+        workers = list(info)
         self._say(f"dask: loading or compiling numba's caches on {len(workers)} worker(s) before the first chunk")
         started = time.perf_counter()
-        warm = [client.submit(warm_worker, model_future, first, paths, str(case_dir), pure=False,
-                              workers=[address], allow_other_workers=False)
-                for address in workers]
-        self._futures.update(warm)
-        self.warmup = [self._result(future, cases[:1]) for future in warm]
+        for wave in warmup_waves({address: info[address].get("host", address) for address in workers}):
+            warm = [client.submit(warm_worker, model_future, first, paths, str(case_dir), pure=False,
+                                  workers=[address], allow_other_workers=False)
+                    for address in wave]
+            self._futures.update(warm)
+            self.warmup += [self._result(future, cases[:1], task="the warm-up") for future in warm]
         cold = sum(w["kernel_was_cold"] for w in self.warmup)
         self._say(f"dask: {len(workers)} worker(s), {self.threads} thread(s) ready in "
                   f"{time.perf_counter() - started:.1f} s" + (f" ({cold} compiled the kernel)" if cold else ""))
