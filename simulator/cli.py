@@ -39,11 +39,13 @@ def _execution_options(p):
     p.add_argument("--scheduler", default=None, metavar="ADDRESS",
                    help="Dask scheduler address, e.g. tcp://10.0.0.5:8786 (default: local process pool)")
     p.add_argument("--batch-size", type=_whole_number(1), default=None,
-                   help="cases per task (default: automatic, >= 25)")
+                   help="cases per task (default: automatic; per-case engine >= 25, compiled engine on Dask "
+                        ">= 0.5 s of work per task)")
     p.add_argument("--engine", choices=("auto", "compiled", "pool"), default="auto",
                    help="auto: the compiled batch integrator when every varied (sweep) or sampled (uncertainty) "
-                        "path is an operating number it supports and no --scheduler is given, else the process "
-                        "pool / Dask (default auto); the engine that ran is printed")
+                        "path is an operating number it supports, else per-case solves; either runs on the local "
+                        "cores or, with --scheduler, on the Dask workers (default auto); the engine that ran is "
+                        "printed")
 
 
 class _Parser(argparse.ArgumentParser):
@@ -398,16 +400,18 @@ def _sweep(args):
     engine, model = choose_engine(args.engine, load_case(args.case), [spec.path for spec in specs], args.scheduler)
     try:
         if engine == "compiled":
-            summary = run_compiled_sweep(raw, case_dir, specs, model, args.out, progress=True)
+            summary = run_compiled_sweep(raw, case_dir, specs, model, args.out, progress=True,
+                                         scheduler=args.scheduler, chunk=args.batch_size)
         else:
             summary = run_grid_sweep(raw, case_dir, specs, TubeEvaluator(), args.out, scheduler=args.scheduler,
                                      batch_size=args.batch_size, progress=True)
     except KeyboardInterrupt:
         return _interrupted(args)
     figures = write_sweep_figures(args.out, raw)
-    unit = "threads" if engine == "compiled" else "workers"
+    unit = "threads" if engine == "compiled" or args.scheduler else "workers"
+    where = f" on Dask at {args.scheduler}" if args.scheduler else ""
     invalid = f", {summary.invalid} invalid (refused by the case)" if summary.invalid else ""
-    print(f"{summary.total} cases ({engine} engine): {summary.computed} computed now, {summary.skipped} already "
+    print(f"{summary.total} cases ({engine} engine{where}): {summary.computed} computed now, {summary.skipped} already "
           f"done, {summary.failed} failed{invalid}; {summary.elapsed:.1f} s on {summary.workers} {unit}")
     for path in figures:
         print(f"figure: {path}")

@@ -2,9 +2,10 @@
 
 Used by ``tubesim sweep`` and ``tubesim uncertainty`` (one rule,
 :mod:`simulator.sweeps.engine`) when every varied or sampled path is an operating
-number the compiled path supports (:func:`simulator.sweeps.fast.supports`) and no Dask
-scheduler is given. Cases run in chunks, the first small (progress within about a
-second), then doubling up to :data:`CHUNK`; each chunk is written to
+number the compiled path supports (:func:`simulator.sweeps.fast.supports`). Locally
+cases run in chunks, the first small (progress within about a second), then doubling
+up to :data:`CHUNK`; with a Dask scheduler the same chunk function runs on the workers
+(:mod:`simulator.sweeps.dask_compiled`). Each chunk is written to
 ``results.sqlite`` in one transaction, so an interrupted run resumes where it
 stopped, by this engine or the process pool alike (the store's ``meta`` is the
 same). As for the pool evaluator, the design temperature limit does not stop a
@@ -41,18 +42,19 @@ def compiled_supported(model, paths):
 
 def _guards(model, y0):
     """Runaway guard temperature of every case from its inlet state, [K]."""
-    from simulator.sweeps.evaluator import runaway_guard
+    from simulator.sweeps.evaluator import guard_from_rise, guard_rise
 
     n = model.n
-    feeds, inverse = np.unique(y0[:, :n + 3], axis=0, return_inverse=True)   # flows, T, P, medium T
-    guard = np.array([runaway_guard(model, row[:n], row[n], row[n + 2]) for row in feeds])
-    return guard[np.asarray(inverse).ravel()]
+    feeds, inverse = np.unique(y0[:, :n + 1], axis=0, return_inverse=True)   # flows, T: the rise is the feed's
+    rise = np.array([guard_rise(model, row[:n], row[n]) for row in feeds], dtype=float)
+    return guard_from_rise(rise[np.asarray(inverse).ravel()], y0[:, n], y0[:, n + 2])
 
 
-def run_compiled_sweep(base_raw, case_dir, vary, model, out_dir, progress=True):
+def run_compiled_sweep(base_raw, case_dir, vary, model, out_dir, progress=True, scheduler=None, chunk=None):
     """Full grid through :func:`simulator.sweeps.fast.batch_solve`; returns a RunSummary.
 
     Holds the output folder's lock (:func:`simulator.sweeps.lock.folder_lock`) while it writes.
+    ``scheduler`` and ``chunk``: as :func:`run_compiled_cases` (Dask workers, cases per task).
     """
     specs = [spec if isinstance(spec, VarySpec) else parse_vary(spec) for spec in vary]
     for spec in specs:
@@ -62,7 +64,8 @@ def run_compiled_sweep(base_raw, case_dir, vary, model, out_dir, progress=True):
     out_dir = Path(out_dir)
     with folder_lock(out_dir, "sweep"), \
             ResultsStore(out_dir / "results.sqlite", paths, grid_meta(base_raw, specs, cases)) as store:
-        summary = run_compiled_cases(case_dir, cases, paths, model, store, progress=progress)
+        summary = run_compiled_cases(case_dir, cases, paths, model, store, progress=progress,
+                                     scheduler=scheduler, chunk=chunk)
         store.export_csv(out_dir / "results.csv")
     return summary
 
@@ -84,13 +87,16 @@ def chunk_sizes(n, first=FIRST_CHUNK, largest=CHUNK):
     return sizes
 
 
-def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, label="cases", ranges=None):
+def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, label="cases", ranges=None,
+                       scheduler=None, chunk=None):
     """Solve ``(case_id, {path: value})`` cases on the compiled engine and store their rows.
 
     Cases already in ``store`` are skipped (resume). Each chunk is one transaction.
     A case the case loader refuses (values outside what it accepts) is stored with
     status ``"invalid"`` and the loader's message; a run that reaches the runaway guard
-    is ``"stopped"``; a numerical failure is ``"failed"``.
+    is ``"stopped"``; a numerical failure is ``"failed"``. The rows do not depend on
+    where the chunks ran: the same :func:`solve_chunk` runs them in this process or, with
+    ``scheduler``, on Dask workers (:mod:`simulator.sweeps.dask_compiled`).
 
     Parameters
     ----------
@@ -112,48 +118,129 @@ def run_compiled_cases(case_dir, cases, paths, model, store, progress=True, labe
         Accepted range per path (:func:`simulator.sweeps.uncertain_ranges.checked_against_loader`):
         a case with a value outside is stored as ``"invalid"`` without solving it, as the
         case loader of the per-case engine would refuse it.
+    scheduler : str, optional
+        Dask scheduler address: the chunks run on its workers.
+    chunk : int, optional
+        Cases per Dask task (``--batch-size``); default the rule of
+        :func:`simulator.sweeps.dask_compiled.chunk_size`. Not used locally.
 
     Returns
     -------
     RunSummary
         Counts and timing.
     """
-    from simulator.sweeps import fast
-
     started = time.perf_counter()
     done = store.done_ids()
     pending = [(cid, values) for cid, values in cases if cid not in done]
     bar = Progress(interactive=None, label=label) if progress else None
     if bar:
         bar.start(len(cases), done=len(cases) - len(pending), failed=store.count(status="failed") if done else 0)
-    failed = invalid = 0
-    sizes = chunk_sizes(len(pending))
-    start = 0
+    outside = _outside_rows(pending, ranges)
+    solvable = [(cid, values) for cid, values in pending if cid not in outside]
+    if scheduler is not None:
+        from simulator.sweeps.dask_compiled import DaskChunks
+
+        runner = DaskChunks(scheduler, chunk=chunk, announce=bool(progress))
+    else:
+        runner = LocalChunks()
+    counts = {"failed": 0, "invalid": 0}
+
+    def record(rows):
+        rows = [rows[cid] for cid in sorted(rows)]
+        n_failed = sum(row["status"] == "failed" for row in rows)
+        counts["failed"] += n_failed
+        counts["invalid"] += sum(row["status"] == "invalid" for row in rows)
+        store.write_rows(rows)
+        if bar:
+            bar.update(len(rows), n_failed)
+
     try:
-        for size in sizes:
-            chunk = pending[start:start + size]
-            start += size
-            rows = _outside_rows(chunk, ranges)
-            chunk = [(cid, values) for cid, values in chunk if cid not in rows]
-            if chunk:
-                params = np.array([[values[p] for p in paths] for _, values in chunk], dtype=float)
-                packed = fast.pack_cases(model, params, paths)
-                out = fast.batch_solve(model, params, paths, rtol=SWEEP_RTOL,
-                                       temperature_limit=_guards(model, packed.y0), case_dir=str(case_dir))
-                rows.update({cid: _row(out, k, cid, values) for k, (cid, values) in enumerate(chunk)})
-            rows = [rows[cid] for cid in sorted(rows)]
-            n_failed = sum(row["status"] == "failed" for row in rows)
-            failed += n_failed
-            invalid += sum(row["status"] == "invalid" for row in rows)
-            store.write_rows(rows)
-            if bar:
-                bar.update(len(rows), n_failed)
+        if outside:
+            record(outside)
+        for chunk_cases, out in runner.solve(model, solvable, paths, case_dir):
+            record({cid: _row(out, k, cid, values) for k, (cid, values) in enumerate(chunk_cases)})
     finally:
+        runner.close()
         if bar:
             bar.close()
-    return RunSummary(total=len(cases), skipped=len(cases) - len(pending), computed=len(pending), failed=failed,
-                      batches=len(sizes), batch_size=max(sizes, default=0),
-                      workers=_threads(), elapsed=time.perf_counter() - started, invalid=invalid)
+    return RunSummary(total=len(cases), skipped=len(cases) - len(pending), computed=len(pending),
+                      failed=counts["failed"], batches=runner.tasks, batch_size=runner.largest,
+                      workers=runner.threads, elapsed=time.perf_counter() - started, invalid=counts["invalid"])
+
+
+#: Fields of a :func:`~simulator.sweeps.fast.batch_solve` result that a store row needs.
+CHUNK_FIELDS = ("status", "invalid", "error", "stop", "hot_spot_temperature_K", "hot_spot_position_m",
+                "outlet_conversion", "outlet_temperature_K", "outlet_pressure_Pa", "outlet_position_m")
+
+
+def solve_chunk(model, params, paths, case_dir, threads=None):
+    """One chunk of cases through the compiled batch integrator; what a store row needs.
+
+    The one task body of the compiled engine, locally and on Dask workers, so rows do not
+    depend on where they were computed: rtol :data:`SWEEP_RTOL`, the runaway guard of every
+    case (:func:`_guards`), and the cases the compiled loop hands back (stiff, step budget,
+    values the fast map refuses) solved here by the per-case path of
+    :func:`~simulator.sweeps.fast.batch_solve`.
+
+    Parameters
+    ----------
+    model : simulator.model.build.Model
+        Base model.
+    params : ndarray (N, len(paths))
+        Values per case, SI.
+    paths : list of str
+        The varied paths.
+    case_dir : str
+        Folder of the case file (fallback cases).
+    threads : int, optional
+        numba threads for the compiled loop; default numba's setting.
+
+    Returns
+    -------
+    dict
+        :data:`CHUNK_FIELDS` (arrays over the chunk, ``error`` a list) and ``seconds``, the
+        wall time of the chunk, [s]
+    """
+    from simulator.sweeps import fast
+
+    t0 = time.perf_counter()
+    packed = fast.pack_cases(model, params, paths)
+    out = fast.batch_solve(model, params, paths, rtol=SWEEP_RTOL, temperature_limit=_guards(model, packed.y0),
+                           case_dir=str(case_dir), threads=threads, packed=packed)
+    result = {name: out[name] for name in CHUNK_FIELDS}
+    result["seconds"] = time.perf_counter() - t0
+    return result
+
+
+def chunk_params(chunk, paths):
+    """``(N, len(paths))`` array of the values of ``(case_id, values)`` cases, SI."""
+    return np.array([[values[p] for p in paths] for _, values in chunk], dtype=float).reshape(len(chunk), len(paths))
+
+
+class LocalChunks:
+    """Chunks solved one after the other in this process (numba ``prange`` over the cores).
+
+    The first chunk is small (progress within about a second), then sizes double up to
+    :data:`CHUNK` (:func:`chunk_sizes`).
+    """
+
+    def __init__(self):
+        self.tasks = 0
+        self.largest = 0
+        self.threads = _threads()
+
+    def solve(self, model, cases, paths, case_dir):
+        """Yield ``(chunk, result of solve_chunk)`` in case order."""
+        start = 0
+        for size in chunk_sizes(len(cases)):
+            chunk = cases[start:start + size]
+            start += size
+            self.tasks += 1
+            self.largest = max(self.largest, size)
+            yield chunk, solve_chunk(model, chunk_params(chunk, paths), paths, case_dir)
+
+    def close(self):
+        """Nothing to release."""
 
 
 def _outside_rows(chunk, ranges):

@@ -1,8 +1,10 @@
 """Which engine runs the cases of ``tubesim sweep`` and ``tubesim uncertainty``: one rule for both.
 
 ``auto`` takes the compiled batch integrator (:mod:`simulator.sweeps.fast`) when every
-varied or sampled path is an operating number it supports and no Dask scheduler is
-given, else the process pool (or Dask). ``compiled`` insists (and says why it cannot),
+varied or sampled path is an operating number it supports, else the per-case pool. The
+rule does not depend on where the cases run: with a Dask scheduler the compiled engine
+sends chunks of cases to the workers (:mod:`simulator.sweeps.dask_compiled`) and the
+pool engine batches of per-case solves. ``compiled`` insists (and says why it cannot),
 ``pool`` never compiles.
 """
 from simulator.errors import CaseError
@@ -22,7 +24,7 @@ def choose_engine(requested, case, paths, scheduler=None):
     paths : sequence of str
         Varied (sweep) or sampled (uncertainty) case paths.
     scheduler : str, optional
-        Dask scheduler address; the compiled engine runs locally only.
+        Dask scheduler address (either engine runs there; kept for the callers' symmetry).
 
     Returns
     -------
@@ -44,10 +46,10 @@ def choose_engine(requested, case, paths, scheduler=None):
     from simulator.sweeps.compiled_sweep import compiled_supported
 
     model = build_model(case)
-    ok = scheduler is None and compiled_supported(model, list(paths))
+    ok = compiled_supported(model, list(paths))
     if requested == "compiled" and not ok:
         from simulator.sweeps.fast import unsupported_reason
 
-        why = "--scheduler sends cases to Dask" if scheduler else unsupported_reason(list(paths), model)
+        why = unsupported_reason(list(paths), model)
         raise CaseError(f"--engine compiled: not available here ({why}); use --engine pool.")
     return ("compiled", model) if ok else ("pool", None)

@@ -82,6 +82,15 @@ def runaway_guard(model, feed_flows, feed_temperature, medium_temperature):
         The guard; where the adiabatic rise is not finite, not positive or has no root,
         the hotter of feed and medium + 500 K, [K]
     """
+    return float(guard_from_rise(guard_rise(model, feed_flows, feed_temperature), feed_temperature,
+                                 medium_temperature))
+
+
+def guard_rise(model, feed_flows, feed_temperature):
+    """The adiabatic rise term of :func:`runaway_guard` (0 where there is no finite positive rise), [K]
+
+    Depends on the feed only, so a batch computes it once per distinct feed.
+    """
     from simulator.model import adiabatic
 
     try:
@@ -89,5 +98,11 @@ def runaway_guard(model, feed_flows, feed_temperature, medium_temperature):
                                         model.args[2])[0]
     except (ValueError, ArithmeticError):   # the root finder found no rise for this feed
         rise = math.nan
-    hotter = max(feed_temperature, medium_temperature)
-    return hotter + 3.0 * (rise if math.isfinite(rise) and rise > 0 else 0.0) + 500.0
+    return rise if math.isfinite(rise) and rise > 0 else 0.0
+
+
+def guard_from_rise(rise, feed_temperature, medium_temperature):
+    """max(T_feed, T_medium) + 3 rise + 500 K, [K] (arrays or floats)."""
+    import numpy as np
+
+    return np.maximum(feed_temperature, medium_temperature) + 3.0 * rise + 500.0

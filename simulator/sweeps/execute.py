@@ -250,6 +250,20 @@ def _local_pool(workers):
 
 
 def _dask_executor(address):
+    client = dask_client(address)
+    workers = sum(client.nthreads().values()) or 1
+    # pure=False: never reuse a cached result of an identical earlier task
+    return client, client.get_executor(pure=False), workers
+
+
+def dask_client(address):
+    """A ``distributed.Client`` of the scheduler at ``address``, or one line saying why there is none.
+
+    Raises
+    ------
+    SweepError
+        dask.distributed is not installed, or no scheduler answers at the address.
+    """
     try:
         from distributed import Client
     except ImportError as err:
@@ -260,9 +274,7 @@ def _dask_executor(address):
     except Exception as err:  # noqa: BLE001 - OSError, TimeoutError, ValueError for a bad address
         raise SweepError(f"--scheduler {address}: cannot reach a Dask scheduler ({one_line_error(err)}); "
                          "start one with `dask scheduler` and workers with `dask worker ADDRESS`") from err
-    workers = sum(client.nthreads().values()) or 1
-    # pure=False: never reuse a cached result of an identical earlier task
-    return client, client.get_executor(pure=False), workers
+    return client
 
 
 def _is_worker_death(err):
@@ -586,7 +598,9 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     engine : {"pool", "compiled"}
         ``"compiled"``: the samples run through the compiled batch integrator
         (:func:`simulator.sweeps.compiled_sweep.run_compiled_cases`, the path of
-        ``tubesim sweep``); needs ``model``.
+        ``tubesim sweep``), on the Dask workers when ``scheduler`` is given (chunks of
+        ``batch_size`` cases, default :func:`simulator.sweeps.dask_compiled.chunk_size`);
+        needs ``model``.
     model : simulator.model.build.Model, optional
         Base model, for the compiled engine.
     probe : object, optional
@@ -598,7 +612,8 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
     Returns
     -------
     dict
-        The content written to ``uncertainty.json`` (with ``engine``).
+        The content written to ``uncertainty.json`` (with ``engine`` and ``run``, which
+        names the ``scheduler``: null for a local run).
     """
     from simulator.fileio import atomic_write_json
     from simulator.sweeps import sampling
@@ -643,7 +658,8 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
                 from simulator.sweeps.compiled_sweep import run_compiled_cases
 
                 summary = run_compiled_cases(case_dir, cases, paths, model, store, progress=bool(progress),
-                                             label="samples", ranges=ranges)
+                                             label="samples", ranges=ranges, scheduler=scheduler,
+                                             chunk=batch_size)
             else:
                 summary = run_cases(base_raw, case_dir, cases, evaluator, store, executor=executor,
                                     scheduler=scheduler, batch_size=batch_size, progress=progress)
@@ -651,7 +667,7 @@ def run_uncertainty(base_raw, case_dir, evaluator, out_dir, n_samples, *, seed=N
             result = sampling.summarize(store.rows(), specs, temperature_limit, seed=int(seed), method=method,
                                         confidence=confidence, interval=interval, ranges=ranges)
         result["engine"] = engine
-        result["run"] = {"skipped": summary.skipped, "computed": summary.computed,
+        result["run"] = {"scheduler": scheduler, "skipped": summary.skipped, "computed": summary.computed,
                          "elapsed_s": round(summary.elapsed, 3), "workers": summary.workers,
                          "cases_per_second": round(summary.computed / summary.elapsed, 1)
                          if summary.computed and summary.elapsed > 0 else None}

@@ -775,7 +775,8 @@ def _order(N, threads):
 
 
 def batch_solve(model, params, paths, *, rtol=DEFAULT_RTOL, atol_scale=None, max_steps=DEFAULT_MAX_STEPS,
-                temperature_limit=None, threads=None, stiffness_fallback=False, fallback=True, case_dir=None):
+                temperature_limit=None, threads=None, stiffness_fallback=False, fallback=True, case_dir=None,
+                packed=None):
     """Solve many cases that differ from the base case only in swept numbers.
 
     Parameters
@@ -807,6 +808,9 @@ def batch_solve(model, params, paths, *, rtol=DEFAULT_RTOL, atol_scale=None, max
     case_dir : str, optional
         Folder that relative paths in the case resolve against, for the fallback cases;
         default the folder of the base case's file.
+    packed : PackedCases, optional
+        :func:`pack_cases` of the same ``model``, ``params`` and ``paths``, when the caller
+        already has it (it is not packed again).
 
     Returns
     -------
@@ -824,7 +828,8 @@ def batch_solve(model, params, paths, *, rtol=DEFAULT_RTOL, atol_scale=None, max
     """
     t0 = time.perf_counter()
     paths = list(paths)
-    packed = pack_cases(model, params, paths)
+    if packed is None:
+        packed = pack_cases(model, params, paths)
     params = np.asarray(params, dtype=float)
     case = model.case
     N = packed.y0.shape[0]

@@ -755,7 +755,8 @@ def format_summary(result):
     p = result["probability_exceeding_limit"]
     run = result.get("run", {})
     rate = run.get("cases_per_second")
-    lines = [f"{s['n']} samples (seed {s['seed']}, {result.get('engine', 'pool')} engine"
+    where = f" on Dask at {run['scheduler']}" if run.get("scheduler") else ""
+    lines = [f"{s['n']} samples (seed {s['seed']}, {result.get('engine', 'pool')} engine{where}"
              + (f", {rate:g} cases/s" if rate else "") + f"): {s['completed']} completed, {s['stopped']} stopped, "
              f"{s['failed']} failed, {s['invalid']} invalid"]
     for item in s.get("invalid_reasons", [])[:3]:
