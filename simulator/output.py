@@ -93,6 +93,11 @@ def print_summary(result, stream=None):
                      if w.get("overall_coefficient_W_per_m2K") else
                      f"  tube wall         hottest {w['max_wall_temperature_K']:.2f} K at z = "
                      f"{w['max_wall_temperature_position_m']:.4g} m")
+    boiling = s.get("boiling")
+    if boiling and boiling.get("checked"):
+        lines.append(f"  boiling check     bubble pressure at most {boiling['max_bubble_to_pressure_ratio']:.3g} x the local "
+                     f"pressure (z = {boiling['position_m']:.4g} m)" + ("; the liquid boils" if boiling["boils_from_m"]
+                                                                          is not None else ""))
     c = s["closure"]
     lines.append(f"  closure           elements {_f(c['elements_relative'], '.1e')}, energy "
                  f"{_f(c['energy_relative'], '.1e')}")

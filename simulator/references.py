@@ -72,6 +72,11 @@ REFERENCES = {
     "leva1949": "M. Leva, \"Packed-tube heat transfer,\" Ind. Eng. Chem., vol. 41, p. 1206, 1949 (heating), and "
                 "M. Leva et al., \"Cooling of gases through packed tubes,\" Ind. Eng. Chem., 1950 (cooling); "
                 "constants as usually quoted.",
+    "li_finlayson1977": "C.-H. Li, B.A. Finlayson, \"Heat transfer in packed beds - a reevaluation,\" Chem. Eng. "
+                        "Sci., vol. 32, pp. 1055-1066, 1977.",
+    "andrade1930": "E.N. da C. Andrade, \"The viscosity of liquids,\" Nature, vol. 125, pp. 309-310, 1930.",
+    "smith_van_ness2005": "J.M. Smith, H.C. Van Ness, M.M. Abbott, Introduction to Chemical Engineering "
+                          "Thermodynamics, 7th ed., McGraw-Hill, 2005 (Raoult's law, Clausius-Clapeyron).",
     "zukauskas1972": "A. Zukauskas, \"Heat transfer from tubes in crossflow,\" Adv. Heat Transfer, vol. 8, "
                      "pp. 93-160, 1972.",
     "mathur1967": "S. Mathur, P.K. Tondon, S.C. Saxena, \"Thermal conductivity of binary, ternary and "

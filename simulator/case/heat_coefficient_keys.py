@@ -27,9 +27,11 @@ OUTSIDE = ("zukauskas-1972",)
 LAYOUTS = ("inline", "staggered")
 #: inside correlations of an empty tube and of a packed bed (names of the form author-year)
 EMPTY_TUBE = ("gnielinski-1976", "dittus-boelter-1930")
-PACKED_BED = ("leva-1949", "leva-1950")
+PACKED_BED = ("leva-1949", "leva-1950", "li-finlayson-1977")
 AUTO = {"empty tube": "auto, Gnielinski (1976) with the laminar/transition guard",
-        "packed bed": "auto, Leva (1949 heating, 1950 cooling, by the direction of the flux)"}
+        "packed bed": "auto, Leva (1949 heating, 1950 cooling, by the direction of the flux)",
+        "li-finlayson-1977": "Li & Finlayson (1977) wall coefficient lumped with the bed's radial conductivity "
+                             "(1/h_i = 1/h_w + R/(4 lambda_er))"}
 
 
 def read_heat_coefficient(ck, h, packed, liquid, given_flux=False):
@@ -159,4 +161,4 @@ def describe_inside(coefficient, packed):
         return f"given, {coefficient.inside_value:.4g} W/(m^2*K)"
     if coefficient.inside == "auto":
         return AUTO["packed bed" if packed else "empty tube"]
-    return coefficient.inside
+    return AUTO.get(coefficient.inside, coefficient.inside)

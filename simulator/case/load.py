@@ -33,18 +33,19 @@ KEYS = {
     "thermo": {"species_file", "equation_of_state", "custom", "critical", "density", "density_at",
                "expansion_coefficient"},
     "thermo.custom.*": {"molar_mass", "cp", "enthalpy_of_formation", "standard_entropy",
-                        "critical_temperature", "critical_pressure", "acentric_factor"},
+                        "critical_temperature", "critical_pressure", "acentric_factor",
+                        "normal_boiling_point", "heat_of_vaporization"},
     "thermo.critical.*": {"critical_temperature", "critical_pressure", "acentric_factor"},
     "reactions.*": {"equation", "form", "pre_exponential", "activation_energy", "temperature_exponent",
                     "orders", "in_terms_of", "rate_basis", "inhibition", "inhibition_power"},
     "reactions.*.inhibition.*": {"species", "pre_exponential", "heat_of_adsorption"},
     "feed": {"temperature", "pressure", "molar_flow", "mass_flow", "volumetric_flow", "mole_fractions"},
-    "tube": {"length", "inner_diameter", "count", "roughness"},
+    "tube": {"length", "inner_diameter", "count", "roughness", "orientation"},
     "bed": {"particle_diameter", "void_fraction", "bulk_density"} | set(RADIAL_BED_KEYS),
     "heat": {"mode", "overall_coefficient", "coefficient", "medium"},
     "heat.medium": {"arrangement", "temperature", "mass_flow", "cp", "profile"},
     "heat.medium.profile.*": {"position", "temperature", "heat_flux"},
-    "pressure_drop": {"model", "viscosity", "friction_correlation"},
+    "pressure_drop": {"model", "viscosity", "friction_correlation", "viscosity_activation_energy", "viscosity_at"},
     "design": {"key_species", "target_conversion", "temperature_limit", "max_pressure_drop",
                "wall_temperature_limit", "products"},
     "solver": {"rtol", "atol_scale", "output_points", "max_step"},
@@ -53,6 +54,9 @@ KEYS = {
 }
 HEAT_MODES = ("adiabatic", "isothermal", "exchange")
 ARRANGEMENTS = ("uniform", "co-current", "counter-current", "wall-profile")
+ORIENTATIONS = ("horizontal", "vertical-up", "vertical-down")
+#: g sin(theta) of each orientation (flow direction above the horizontal), [m/s^2] (standard gravity)
+GRAVITY_ALONG = {"horizontal": 0.0, "vertical-up": 9.80665, "vertical-down": -9.80665}
 RATE_FORMS = ("power-law", "hougen-watson")
 ACTIVITY_BASES = ("concentration", "partial-pressure")
 RATE_BASES = ("reactor-volume", "catalyst-mass")
@@ -358,7 +362,7 @@ def _thermo(ck, raw, case_dir):
         custom.append(CustomSpecies(
             name=name,
             molar_mass=ck.quantity(entry, "molar_mass", "molar_mass", path, minimum=0.0),
-            cp=ck.quantity(entry, "cp", "molar_heat_capacity", path, minimum=0.0),
+            cp=_custom_cp(ck, entry, path),
             enthalpy_of_formation=ck.quantity(entry, "enthalpy_of_formation", "molar_energy", path),
             standard_entropy=ck.quantity(entry, "standard_entropy", "molar_entropy", path, required=False),
             critical_temperature=ck.quantity(entry, "critical_temperature", "temperature", path,
@@ -366,7 +370,14 @@ def _thermo(ck, raw, case_dir):
             critical_pressure=ck.quantity(entry, "critical_pressure", "pressure", path, required=False,
                                           minimum=0.0),
             acentric_factor=ck.number(entry, "acentric_factor", path, lo=-1.0, hi=2.0),
+            normal_boiling_point=ck.quantity(entry, "normal_boiling_point", "temperature", path, required=False,
+                                             minimum=0.0),
+            heat_of_vaporization=ck.quantity(entry, "heat_of_vaporization", "molar_energy", path, required=False,
+                                             minimum=0.0),
         ))
+        if ("normal_boiling_point" in entry) != ("heat_of_vaporization" in entry):
+            ck.fail(path, ": give normal_boiling_point and heat_of_vaporization together (the vapour pressure of "
+                    "the boiling check needs both).")
     critical = []
     for name, entry in (ck.table(t, "critical", "thermo.critical", required=False) or {}).items():
         path = f"thermo.critical.{name}"
@@ -381,6 +392,22 @@ def _thermo(ck, raw, case_dir):
     return Thermo(species_file=species_file, species_path=species_path, equation_of_state=eos,
                   custom=tuple(custom), critical=tuple(critical), density=rho, density_at=rho_at,
                   expansion_coefficient=beta)
+
+
+def _custom_cp(ck, entry, path):
+    """cp of a custom species, [J/(mol*K)]: molar as written, or per mass times the molar mass."""
+    written = entry.get("cp")
+    try:
+        per_mass = parse_quantity(written, "specific_heat_capacity", "") if isinstance(written, str) else None
+    except UnitError:
+        per_mass = None
+    if per_mass is None:
+        return ck.quantity(entry, "cp", "molar_heat_capacity", path, minimum=0.0)
+    M = ck.quantity(entry, "molar_mass", "molar_mass", path, minimum=0.0)
+    if not per_mass > 0.0:
+        ck.fail(f"{path}.cp", f" = {written!r}: must be > 0.")
+        return NAN
+    return ck.plausible(f"{path}.cp", written, per_mass * M, "J/(mol*K)")
 
 
 def _activity_unit(in_terms_of):
@@ -582,7 +609,8 @@ def _tube(ck, raw):
                 inner_diameter=ck.quantity(t, "inner_diameter", "length", "tube", minimum=0.0),
                 count=ck.number(t, "count", "tube", default=1, lo=1, integer=True),
                 roughness=ck.quantity(t, "roughness", "length", "tube", required=False, minimum=0.0,
-                                      strict=False) if "roughness" in t else 0.0)
+                                      strict=False) if "roughness" in t else 0.0,
+                orientation=ck.choice(t, "orientation", "tube", ORIENTATIONS, default="horizontal") or "horizontal")
 
 
 def _bed(ck, raw):
@@ -662,7 +690,14 @@ def _pressure_drop(ck, raw, bed):
         ck.fail("pressure_drop.model", ' = "pipe-friction": the case has a [bed]; use "ergun" for a packed tube.')
     mu = ck.quantity(p, "viscosity", "viscosity", "pressure_drop", required=False, minimum=0.0)
     corr = ck.choice(p, "friction_correlation", "pressure_drop", FRICTION, default="churchill-1977")
-    return PressureDrop(model=model, viscosity=mu, friction_correlation=corr or "churchill-1977")
+    E_mu = ck.quantity(p, "viscosity_activation_energy", "molar_energy", "pressure_drop", required=False,
+                       minimum=0.0, strict=False)
+    T_mu = ck.quantity(p, "viscosity_at", "temperature", "pressure_drop", required=False, minimum=0.0)
+    if ("viscosity_activation_energy" in p or "viscosity_at" in p) and "viscosity" not in p:
+        ck.fail("pressure_drop.viscosity", ": missing; the Andrade law (viscosity_activation_energy, viscosity_at) "
+                "scales a given viscosity with temperature, e.g. viscosity = \"1.2e-3 Pa*s\".")
+    return PressureDrop(model=model, viscosity=mu, friction_correlation=corr or "churchill-1977",
+                        viscosity_activation_energy=E_mu, viscosity_at=T_mu)
 
 
 def _design(ck, raw):

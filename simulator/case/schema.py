@@ -40,6 +40,8 @@ class CustomSpecies:
     critical_temperature: float = NAN  # [K]
     critical_pressure: float = NAN     # [Pa]
     acentric_factor: float = NAN       # [-]
+    normal_boiling_point: float = NAN  # [K] at 1 atm (boiling check of a liquid feed)
+    heat_of_vaporization: float = NAN  # [J/mol] (Clausius-Clapeyron vapour pressure from the boiling point)
 
 
 @dataclass(frozen=True)
@@ -102,6 +104,7 @@ class Tube:
     inner_diameter: float            # [m]
     count: int                       # [-]
     roughness: float = 0.0           # [m]
+    orientation: str = "horizontal"  # "horizontal" | "vertical-up" | "vertical-down" (hydrostatic head)
 
 
 @dataclass(frozen=True)
@@ -180,6 +183,8 @@ class PressureDrop:
     model: PressureDropModel
     viscosity: float = NAN               # [Pa*s]; NaN -> from transport data
     friction_correlation: str = "churchill-1977"
+    viscosity_activation_energy: float = NAN   # [J/mol] Andrade law of a liquid around ``viscosity``
+    viscosity_at: float = NAN                  # [K] temperature of ``viscosity`` (default the feed's)
 
 
 @dataclass(frozen=True)

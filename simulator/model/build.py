@@ -142,6 +142,9 @@ def build_model(case, species=None, constant_moles=False):
     fp[K.F_TC] = heat.medium_temperature
     fp[K.F_MCP] = exchange.capacity_rate(heat, tube.count)
     fp[K.F_ROUGH] = tube.roughness
+    from simulator.case.load import GRAVITY_ALONG
+
+    fp[K.F_GSIN] = GRAVITY_ALONG[tube.orientation]
     fp[K.F_G] = G
     fp[K.F_PMIN] = 1e-3 * case.feed.pressure
     fp[K.F_T0] = case.feed.temperature
@@ -240,9 +243,17 @@ def _viscosity_law(case, species, fp, x0):
     ``F_MU0`` and ``F_MUEXP`` then hold the feed gas's law mu0 (T/T_feed)^a for reference (the
     note, and sweeps that map parameters as this function does); the kernel does not use them.
     """
-    if not np.isnan(case.pressure_drop.viscosity):
+    pd = case.pressure_drop
+    if not np.isnan(pd.viscosity) and not np.isnan(pd.viscosity_activation_energy):
+        fp[K.F_MUMODE] = K.VISCOSITY_ANDRADE
+        T_ref = case.feed.temperature if np.isnan(pd.viscosity_at) else pd.viscosity_at
+        fp[K.F_MU0], fp[K.F_MUT0] = pd.viscosity, T_ref
+        fp[K.F_MUEXP] = pd.viscosity_activation_energy / R
+        return (f"Andrade law mu = {pd.viscosity:.4g} Pa*s exp(E/R (1/T - 1/{T_ref:.6g} K)), E = "
+                f"{pd.viscosity_activation_energy / 1e3:.4g} kJ/mol (Andrade 1930)")
+    if not np.isnan(pd.viscosity):
         fp[K.F_MUMODE] = K.VISCOSITY_CONSTANT
-        fp[K.F_MU0], fp[K.F_MUEXP] = case.pressure_drop.viscosity, 0.0
+        fp[K.F_MU0], fp[K.F_MUEXP] = pd.viscosity, 0.0
         return "given in the case (constant)"
     T0, P0 = case.feed.temperature, case.feed.pressure
     try:

@@ -38,12 +38,15 @@ import math
 from numba import njit
 
 # inside-coefficient methods fp[o + C_METHOD]
-INSIDE_VALUE, EMPTY_GNIELINSKI, EMPTY_DITTUS_BOELTER, PACKED_LEVA_AUTO, PACKED_LEVA_1949, PACKED_LEVA_1950 = range(6)
+(INSIDE_VALUE, EMPTY_GNIELINSKI, EMPTY_DITTUS_BOELTER, PACKED_LEVA_AUTO, PACKED_LEVA_1949, PACKED_LEVA_1950,
+ PACKED_LI_FINLAYSON) = range(7)
 # conductivity modes fp[o + C_KMODE]
 CONDUCTIVITY_GIVEN, CONDUCTIVITY_FITS = range(2)
 # the coefficient block of fp, from an offset o (planned: a new fixed fp entry); the 5 n conductivity fits follow it
-(C_METHOD, C_HI, C_RWALL, C_ROUT, C_RFIN, C_KMODE, C_KGAS, C_DP, C_FACTOR) = range(9)
-N_COEF = 9
+(C_METHOD, C_HI, C_RWALL, C_ROUT, C_RFIN, C_KMODE, C_KGAS, C_DP, C_FACTOR, C_LAMBDA) = range(10)
+N_COEF = 10
+#: fp[o + C_LAMBDA]: effective radial conductivity of the bed lambda_er for the lumping of a wall
+#: coefficient of the two-dimensional model into the one-dimensional h_i (Li-Finlayson), [W/(m*K)]
 #: fp[o + C_RWALL], C_ROUT and C_RFIN are resistances referred to the inner area, [m^2*K/W]:
 #: D_i ln(D_o/D_i)/(2 k_w); (D_i/D_o)(R_f,o + 1/h_o); R_f,i
 
@@ -258,6 +261,76 @@ def leva_1949_1950(Re_p, dp_over_dt, heating):
 
 
 @njit(cache=True)
+def li_finlayson_1977(Re_p):
+    r"""Wall Nusselt number h_w d_p / k of a packed bed of spheres (Li & Finlayson), [-].
+
+    Parameters
+    ----------
+    Re_p : float
+        Particle Reynolds number d_p G / mu, [-]
+
+    Returns
+    -------
+    Nu_w : float
+        Nusselt number on the particle diameter, [-]
+
+    Notes
+    -----
+    .. math:: \frac{h_w d_p}{k} = 0.17\, Re_p^{0.79}
+
+    The wall coefficient of the two-dimensional model (spheres; 20 < Re_p < 7600,
+    0.05 < d_p/d_t < 0.3; constants and ranges as usually quoted, from memory). For the
+    one-dimensional model it is lumped with the bed's radial conduction,
+    :func:`lumped_wall_coefficient`.
+
+    References
+    ----------
+    .. [1] C.-H. Li and B.A. Finlayson, "Heat transfer in packed beds - a reevaluation,"
+       Chem. Eng. Sci., vol. 32, pp. 1055-1066, 1977.
+
+    Examples
+    --------
+    >>> round(li_finlayson_1977(130.0), 4)
+    7.9518
+    """
+    return 0.17 * Re_p ** 0.79
+
+
+@njit(cache=True)
+def lumped_wall_coefficient(h_w, radial_conductivity, radius):
+    r"""One-dimensional bed-side coefficient from a wall coefficient and the radial conductivity, [W/(m^2*K)].
+
+    Parameters
+    ----------
+    h_w : float
+        Wall coefficient of the two-dimensional model, [W/(m^2*K)]
+    radial_conductivity : float
+        Effective radial conductivity lambda_er, [W/(m*K)]
+    radius : float
+        Tube inner radius R, [m]
+
+    Returns
+    -------
+    h : float
+        [W/(m^2*K)]
+
+    Notes
+    -----
+    .. math:: \frac{1}{h} = \frac{1}{h_w} + \frac{R}{4 \lambda_{er}}
+
+    the lumping of a parabolic radial profile (as in Froment & Bischoff, from memory); the
+    same form as :func:`simulator.model.radial.lumped_coefficient`. Dixon's form,
+    R/(3 lambda_er) (Bi + 3)/(Bi + 4), gives a few per cent less.
+
+    Examples
+    --------
+    >>> round(lumped_wall_coefficient(125.0, 0.91, 0.0127), 2)
+    87.04
+    """
+    return 1.0 / (1.0 / h_w + radius / (4.0 * radial_conductivity))
+
+
+@njit(cache=True)
 def gas_conductivity(T, F, fp, o):
     r"""Thermal conductivity of the gas at the local temperature and composition, [W/(m*K)].
 
@@ -320,7 +393,8 @@ def inside_coefficient(method, value, G, D, d_p, mu, cp, k, heating):
     method : int
         One of the ``INSIDE_*``/``EMPTY_*``/``PACKED_*`` codes, [-]
     value : float
-        The given h_i (``INSIDE_VALUE`` only), [W/(m^2*K)]
+        The given h_i (``INSIDE_VALUE``), [W/(m^2*K)], or the bed's radial conductivity
+        lambda_er (``PACKED_LI_FINLAYSON``), [W/(m*K)]
     G : float
         Mass velocity per tube cross-section, [kg/(m^2*s)]
     D : float
@@ -346,6 +420,8 @@ def inside_coefficient(method, value, G, D, d_p, mu, cp, k, heating):
     if method == EMPTY_GNIELINSKI or method == EMPTY_DITTUS_BOELTER:
         return empty_tube_nusselt(G * D / mu, cp * mu / k, method, heating) * k / D
     Re_p = G * d_p / mu
+    if method == PACKED_LI_FINLAYSON:      # lambda_er is passed in ``value`` for this method
+        return lumped_wall_coefficient(li_finlayson_1977(Re_p) * k / d_p, value, 0.5 * D)
     if method != PACKED_LEVA_AUTO:
         heating = method == PACKED_LEVA_1949
     return leva_1949_1950(Re_p, d_p / D, heating) * k / D

@@ -16,7 +16,7 @@ Balances (z = axial position [m], A_c = pi D^2/4)::
 
     dF_i/dz = A_c * sum_j nu_ij * r_j * basis_j
     dT/dz   = (U pi D (Tc - T) - sum_i H_i dF_i/dz - dH/dP dP/dz) / (dH/dT)
-    dP/dz   = Ergun (packed bed) | -f G^2 / (2 D rho) (empty tube) | 0
+    dP/dz   = Ergun (packed bed) | -f G^2 / (2 D rho) (empty tube) | 0,  - rho g sin(theta) (inclined)
     dTc/dz  = U pi D (T - Tc) / C_m                         (flowing medium only)
 
 where C_m = +m_c cp_c / N_tubes for a medium flowing with the gas (co-current) and
@@ -73,14 +73,16 @@ DP_NONE, DP_ERGUN, DP_PIPE = range(3)
 EOS_IDEAL, EOS_PR = range(2)
 # float parameters fp[...]
 (F_AREA, F_DIAM, F_U, F_TC, F_MCP, F_RHOB, F_EPS, F_DP, F_MU0, F_MUEXP, F_MUT0, F_ROUGH, F_G,
- F_PMIN, F_T0, F_P0, F_FT0, F_MUMODE, F_RHOL, F_BETA, F_TRHO) = range(21)
-N_FP = 21   # F_RHOL, F_BETA, F_TRHO: liquid density law rho(T) = rho_ref [1 - beta (T - T_ref)]
+ F_PMIN, F_T0, F_P0, F_FT0, F_MUMODE, F_RHOL, F_BETA, F_TRHO, F_GSIN) = range(22)
+N_FP = 22   # F_RHOL, F_BETA, F_TRHO: liquid density law rho(T) = rho_ref [1 - beta (T - T_ref)]
+# F_GSIN: g sin(theta) of the flow direction above the horizontal (tube.orientation), [m/s^2]: the
+# hydrostatic head adds dP/dz = -rho g sin(theta) (0 for a horizontal tube)
 # per-species tail of fp (n species; independent of the feed, so a sweep may copy it), see build.py:
 #   fp[F_VISC + 5 i + c]               viscosity fit of species i (Cantera's form, see viscosity)
 #   fp[F_VISC + 5 n + n i + k]         (M_k / M_i)^(1/4)                          (Wilke)
 #   fp[F_VISC + 5 n + n^2 + n i + k]   1 / sqrt(8 (1 + M_i / M_k))                (Wilke)
 F_VISC = N_FP
-VISCOSITY_CONSTANT, VISCOSITY_WILKE = 0, 1
+VISCOSITY_CONSTANT, VISCOSITY_WILKE, VISCOSITY_ANDRADE = 0, 1, 2
 #: amount below which a rate that does not vanish with its reactant is switched off, relative to
 #: the total feed flow per tube, [-] (see _depletion)
 DEPLETION_FRACTION = 1e-9
@@ -436,6 +438,8 @@ def viscosity(T, F, fp):
     Notes
     -----
     ``fp[F_MUMODE] == VISCOSITY_CONSTANT``: mu0 (T/T0)^a (a given constant has a = 0).
+    ``VISCOSITY_ANDRADE`` (a liquid's law, ``pressure_drop.viscosity_activation_energy``):
+    mu0 exp(E_mu/R (1/T - 1/T0)) (Andrade 1930) with E_mu/R in ``fp[F_MUEXP]``.
     ``VISCOSITY_WILKE``: pure-species viscosities from the fits Cantera makes of its transport
     data, :math:`\mu_i = \sqrt{T}\,(\sum_c a_{ic} (\ln T)^c)^2`, combined with Wilke's rule [1]_
 
@@ -449,7 +453,10 @@ def viscosity(T, F, fp):
     ----------
     .. [1] C.R. Wilke, "A viscosity equation for gas mixtures," J. Chem. Phys., vol. 18,
        pp. 517-519, 1950.
+    .. [2] E.N. da C. Andrade, "The viscosity of liquids," Nature, vol. 125, pp. 309-310, 1930.
     """
+    if fp[F_MUMODE] == VISCOSITY_ANDRADE:    # liquid: mu0 exp(b (1/T - 1/T0)), b = E_mu/R in F_MUEXP [K]
+        return fp[F_MU0] * math.exp(fp[F_MUEXP] * (1.0 / T - 1.0 / fp[F_MUT0]))
     if fp[F_MUMODE] != VISCOSITY_WILKE:
         return fp[F_MU0] * (T / fp[F_MUT0]) ** fp[F_MUEXP]
     n = F.shape[0]
@@ -520,8 +527,9 @@ def wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw):
     cp /= mass
     k = hc.gas_conductivity(T, F, fp, o)
     mu = viscosity(T, F, fp)
-    h_i = hc.inside_coefficient(int(fp[o + hc.C_METHOD]), fp[o + hc.C_HI], fp[F_G], fp[F_DIAM], fp[o + hc.C_DP],
-                                mu, cp, k, Tc > T)
+    method = int(fp[o + hc.C_METHOD])
+    value = fp[o + hc.C_LAMBDA] if method == hc.PACKED_LI_FINLAYSON else fp[o + hc.C_HI]
+    h_i = hc.inside_coefficient(method, value, fp[F_G], fp[F_DIAM], fp[o + hc.C_DP], mu, cp, k, Tc > T)
     return hc.overall_coefficient(h_i, fp, o), h_i
 
 
@@ -659,7 +667,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
         qw = 0.0
     # pressure gradient
     dP = 0.0
-    if ip[I_DP] != DP_NONE:
+    if ip[I_DP] != DP_NONE or fp[F_GSIN] != 0.0:
         Ft = 0.0
         mass = 0.0
         for i in range(n):
@@ -670,13 +678,15 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             rho = liquid.density(T, fp[F_RHOL], fp[F_BETA], fp[F_TRHO])
         else:
             rho = P * (mass / Ft) / (Z * R * T)
+        dP = -rho * fp[F_GSIN]          # hydrostatic head of an inclined tube
+    if ip[I_DP] != DP_NONE:
         G = fp[F_G]
         mu = viscosity(T, F, fp)
         if ip[I_DP] == DP_ERGUN:
             eps = fp[F_EPS]
             dp = fp[F_DP]
             u = G / rho
-            dP = -(150.0 * mu * (1.0 - eps) ** 2 * u / (eps ** 3 * dp * dp)
+            dP -= (150.0 * mu * (1.0 - eps) ** 2 * u / (eps ** 3 * dp * dp)
                    + 1.75 * rho * (1.0 - eps) * u * u / (eps ** 3 * dp))
         else:
             D = fp[F_DIAM]
@@ -690,7 +700,7 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
                 f = _blasius(Re)
             else:
                 f = _laminar(Re)
-            dP = -f * G * G / (2.0 * D * rho)
+            dP -= f * G * G / (2.0 * D * rho)
     dydz[n + 1] = dP
     # energy
     if heat == HEAT_ISOTHERMAL:

@@ -107,7 +107,8 @@ CHECKS = ({'key': 'levenspiel1999',
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
               'where the published profiles run away; the dimensionless groups of the published tube; the '
               "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
-              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
+              'steel wall and a shell-side coefficient, and from the Li-Finlayson wall coefficient lumped '
+              'with a radial conductivity (plausibility, within 20 %)',
   'where': 'overall U of the o-xylene tube, 0.096 kJ/(m^2 s K) (plausibility, +-20 %)',
   'test': 'tests/test_heat_coefficient_wiring.py::test_oxylene_tube_u_from_leva_is_within_the_spread_of_the_published_u'},
  {'key': 'ht_library',
@@ -126,6 +127,18 @@ CHECKS = ({'key': 'levenspiel1999',
               'capacity at each point',
   'where': 'ht.conv_tube_bank.Nu_Zukauskas_Bejan (tube bank in crossflow)',
   'test': 'tests/test_heat_coefficient_wiring.py::test_zukauskas_bank_against_ht_and_a_shell_side_case'},
+ {'key': 'froment1967',
+  'citation': "G.F. Froment, 'Fixed bed catalytic reactors - current design status', Ind. Eng. Chem. 59(2), "
+              '18-27, 1967',
+  'compared': 'Hot-spot temperature of the published o-xylene oxidation tube for inlet partial pressures of '
+              '0.011-0.0175 atm, against an independent reproduction of the published model and data (not '
+              'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
+              'where the published profiles run away; the dimensionless groups of the published tube; the '
+              "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
+              'steel wall and a shell-side coefficient, and from the Li-Finlayson wall coefficient lumped '
+              'with a radial conductivity (plausibility, within 20 %)',
+  'where': 'overall U of the o-xylene tube (plausibility, +-20 %) from Li-Finlayson lumped',
+  'test': 'tests/test_heat_coefficient_wiring.py::test_li_finlayson_lumped_with_the_radial_conductivity_matches_the_published_u'},
  {'key': 'levenspiel1999',
   'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
   'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
@@ -138,6 +151,20 @@ CHECKS = ({'key': 'levenspiel1999',
               'the ideal design of the assumption check, against the closed-form performance equations',
   'where': 'ch. 9, adiabatic operating line T - T0 = dT_ad X (chapter from memory)',
   'test': 'tests/test_liquid.py::test_adiabatic_liquid_follows_the_straight_line'},
+ {'key': 'andrade1930',
+  'citation': "E.N. da C. Andrade, 'The viscosity of liquids', Nature 125, 309, 1930",
+  'compared': "The kernel's liquid viscosity at three temperatures against the Andrade law, and the "
+              'pipe-friction pressure drop of an isothermal liquid tube against the same tube with the '
+              'constant viscosity the law gives',
+  'where': 'mu = A exp(B/T) of a liquid',
+  'test': 'tests/test_liquid_extras.py::test_andrade_viscosity_follows_the_law_and_moves_the_friction'},
+ {'key': 'smith_van_ness2005',
+  'citation': 'J.M. Smith, H.C. Van Ness, M.M. Abbott, Introduction to Chemical Engineering Thermodynamics, '
+              '7th ed., 2005',
+  'compared': "The boiling check's bubble pressure at the inlet of a liquid tube against Raoult's law with "
+              'Clausius-Clapeyron vapour pressures worked by hand',
+  'where': "Raoult's law bubble pressure with Clausius-Clapeyron vapour pressures",
+  'test': 'tests/test_liquid_extras.py::test_boiling_check_warns_where_the_bubble_pressure_exceeds_the_pressure'},
  {'key': 'levenspiel1999',
   'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
   'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
@@ -159,7 +186,8 @@ CHECKS = ({'key': 'levenspiel1999',
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
               'where the published profiles run away; the dimensionless groups of the published tube; the '
               "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
-              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
+              'steel wall and a shell-side coefficient, and from the Li-Finlayson wall coefficient lumped '
+              'with a radial conductivity (plausibility, within 20 %)',
   'where': 'published model and data; check values from an independent reproduction (not printed values), p0 '
            '= 0.011-0.0175 atm',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_against_published_case'},
@@ -171,7 +199,8 @@ CHECKS = ({'key': 'levenspiel1999',
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
               'where the published profiles run away; the dimensionless groups of the published tube; the '
               "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
-              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
+              'steel wall and a shell-side coefficient, and from the Li-Finlayson wall coefficient lumped '
+              'with a radial conductivity (plausibility, within 20 %)',
   'where': "runaway between p0 = 0.0175 and 0.018 atm (independent reproduction; the source's figure shows "
            'it just above 0.018 atm, from memory)',
   'test': 'tests/test_oxylene_published.py::test_hot_spot_jumps_between_0_0175_and_0_018_atm'},
@@ -615,7 +644,8 @@ CHECKS = ({'key': 'levenspiel1999',
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
               'where the published profiles run away; the dimensionless groups of the published tube; the '
               "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
-              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
+              'steel wall and a shell-side coefficient, and from the Li-Finlayson wall coefficient lumped '
+              'with a radial conductivity (plausibility, within 20 %)',
   'where': 'groups derived from the published tube data (independent derivation)',
   'test': 'tests/test_screening.py::test_groups_of_the_published_tube'},
  {'key': 'froment1967',
@@ -626,7 +656,8 @@ CHECKS = ({'key': 'levenspiel1999',
               'values printed in the paper); the jump to runaway between 0.0175 and 0.018 atm, within 3 % of '
               'where the published profiles run away; the dimensionless groups of the published tube; the '
               "published overall U (96 W/(m^2 K)) against U from Leva's packed-bed wall correlation with a "
-              'steel wall and a shell-side coefficient (plausibility, within 20 %)',
+              'steel wall and a shell-side coefficient, and from the Li-Finlayson wall coefficient lumped '
+              'with a radial conductivity (plausibility, within 20 %)',
   'where': "runaway appears just above p0 = 0.018 atm in the source's profile figure (from memory): +-3 %",
   'test': 'tests/test_screening.py::test_critical_feed_fraction_near_the_remembered_published_value'},
  {'key': 'barkelew1959',

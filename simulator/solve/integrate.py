@@ -34,6 +34,7 @@ from simulator.model import kernels
 from simulator.model.build import build_model, check_profile_covers
 from simulator.model.heat import arrangement_of
 from simulator.model.heat.coefficient import hottest_wall, validity_warnings, wall_along
+from simulator.solve.boiling import boiling_block
 from simulator.results import Result
 from simulator.units import R as R_GAS
 from simulator.solve.checks import (closure, closure_failure, closure_warnings, compressibility_profile,
@@ -591,6 +592,9 @@ def _simulate(case, model=None, length=None):
     wall = _guarded(lambda: wall_along(model, zs, ys, tube.K), None) if case.heat.exchange else None
     if wall is not None and case.heat.coefficient is not None:
         notes += _guarded(lambda: validity_warnings(model, zs, ys), [])
+    boiling, boiling_notes = _guarded(lambda: boiling_block(case, model.species.names, zs, ys[:, n], ys[:, n + 1],
+                                                            ys[:, :n]), (None, []))
+    notes += boiling_notes
     notes += closure_warnings(clos)
     notes += range_warnings(model, ys)
     notes += model_warnings(model, ys, zs, hot)
@@ -610,7 +614,7 @@ def _simulate(case, model=None, length=None):
         extra={"adiabatic": rise_info, "viscosity": model.viscosity_note,
                "timing": {"main_integration_s": main_time, "total_s": elapsed},
                "critical_sources": dict(zip(model.species.names, model.critical_sources)), "wall": wall,
-               "nasa": model.args[2]},
+               "nasa": model.args[2], **({"summary_blocks": {"boiling": boiling}} if boiling else {})},
     )
 
 
@@ -888,12 +892,17 @@ def references_used(case, model, compressibility_computed=False):
     c = case.heat.coefficient if case.heat.exchange else None
     if c is not None and c.inside != "value":
         keys += {"gnielinski-1976": ["gnielinski1976", "gnielinski2013"], "dittus-boelter-1930":
-                 ["dittus_boelter1930", "gnielinski2013"]}.get(c.inside, ["leva1949"] if case.bed is not None
-                                                               else ["gnielinski1976", "gnielinski2013"])
+                 ["dittus_boelter1930", "gnielinski2013"], "li-finlayson-1977": ["li_finlayson1977"]}.get(
+                     c.inside, ["leva1949"] if case.bed is not None else ["gnielinski1976", "gnielinski2013"])
         if math.isnan(case.pressure_drop.viscosity):
             keys.append("wilke1950")
         if math.isnan(c.conductivity):
             keys.append("mathur1967")
     if c is not None and c.shell is not None:
         keys.append("zukauskas1972")
+    if case.pressure_drop.viscosity_activation_energy == case.pressure_drop.viscosity_activation_energy:
+        keys.append("andrade1930")
+    if any(x.normal_boiling_point == x.normal_boiling_point for x in case.thermo.custom) \
+            and case.thermo.equation_of_state == "liquid":
+        keys.append("smith_van_ness2005")
     return list(dict.fromkeys(keys))

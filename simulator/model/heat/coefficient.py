@@ -17,7 +17,9 @@ Validity ranges (checked along the profile, a warning for each range left):
 * Gnielinski (1976): 2300 < Re < 5e6 (turbulent branch; the regime guard blends below 1e4),
   0.5 < Pr < 2000;
 * Dittus-Boelter (1930): Re > 1e4, 0.7 < Pr < 160;
-* Leva (1949, 1950): 0.05 < d_p/d_t < 0.3 and Re_p up to about 2000 (as usually quoted, from memory).
+* Leva (1949, 1950): 0.05 < d_p/d_t < 0.3 and Re_p up to about 2000 (as usually quoted, from memory);
+* Li & Finlayson (1977): 20 < Re_p < 7600 and 0.05 < d_p/d_t < 0.3 (spheres; as usually quoted), its
+  wall coefficient lumped with ``[bed] radial_conductivity`` into h_i (1/h_i = 1/h_w + R/(4 lambda_er)).
 """
 import math
 
@@ -28,12 +30,15 @@ from simulator.errors import CaseError, ThermoError
 from simulator.model import heat_coefficient as hc
 
 METHODS = {"gnielinski-1976": hc.EMPTY_GNIELINSKI, "dittus-boelter-1930": hc.EMPTY_DITTUS_BOELTER,
-           "leva-1949": hc.PACKED_LEVA_1949, "leva-1950": hc.PACKED_LEVA_1950, "value": hc.INSIDE_VALUE}
+           "leva-1949": hc.PACKED_LEVA_1949, "leva-1950": hc.PACKED_LEVA_1950,
+           "li-finlayson-1977": hc.PACKED_LI_FINLAYSON, "value": hc.INSIDE_VALUE}
 #: (Re low, Re high, Pr low, Pr high) of the empty-tube correlations, [-] (see the module docstring)
 EMPTY_RANGES = {hc.EMPTY_GNIELINSKI: (2300.0, 5.0e6, 0.5, 2000.0, "Gnielinski (1976)"),
                 hc.EMPTY_DITTUS_BOELTER: (1.0e4, math.inf, 0.7, 160.0, "Dittus-Boelter (1930)")}
 #: Leva's validity as usually quoted (from memory): d_p/d_t and the particle Reynolds number, [-]
 LEVA_RATIO, LEVA_RE_MAX = (0.05, 0.3), 2000.0
+#: Li & Finlayson's particle Reynolds range (spheres), as usually quoted (from memory), [-]
+LI_FINLAYSON_RE = (20.0, 7600.0)
 
 
 def method_code(coefficient, packed):
@@ -66,6 +71,13 @@ def coefficient_block(case, species):
     block[hc.C_RFIN] = c.fouling_inside
     block[hc.C_DP] = case.bed.particle_diameter if case.bed is not None else 0.0
     block[hc.C_FACTOR] = c.factor
+    if c.inside == "li-finlayson-1977":
+        conductivity = case.radial.conductivity
+        if not conductivity == conductivity:
+            raise CaseError(f"{case.source_path}: heat.coefficient.inside = \"li-finlayson-1977\": the wall coefficient "
+                            "of the two-dimensional model is lumped with the bed's radial conduction; give [bed] "
+                            "radial_conductivity (e.g. \"0.9 W/(m*K)\").")
+        block[hc.C_LAMBDA] = conductivity
     if not math.isnan(c.conductivity) or c.inside == "value":
         block[hc.C_KMODE] = hc.CONDUCTIVITY_GIVEN
         block[hc.C_KGAS] = 0.0 if math.isnan(c.conductivity) else c.conductivity
@@ -160,6 +172,13 @@ def validity_warnings(model, zs, ys):
     d_p = fp[o + hc.C_DP]
     ratio = d_p / D
     Re_p = G * d_p / mu
+    if code == hc.PACKED_LI_FINLAYSON:
+        lo, hi = LI_FINLAYSON_RE
+        if Re_p.min() < lo or Re_p.max() > hi or not LEVA_RATIO[0] <= ratio <= LEVA_RATIO[1]:
+            warnings.append(f"heat.coefficient.inside: Re_p = {Re_p.min():.4g} to {Re_p.max():.4g}, d_p/d_t = "
+                            f"{ratio:.3g}; Li & Finlayson (1977) as usually quoted: {lo:g} < Re_p < {hi:g}, "
+                            f"{LEVA_RATIO[0]:g} < d_p/d_t < {LEVA_RATIO[1]:g}")
+        return warnings + shell
     if not LEVA_RATIO[0] <= ratio <= LEVA_RATIO[1]:
         warnings.append(f"heat.coefficient.inside: d_p/d_t = {ratio:.3g}, outside {LEVA_RATIO[0]:g} to "
                         f"{LEVA_RATIO[1]:g} of Leva's correlations (as usually quoted)")
