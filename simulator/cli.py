@@ -195,9 +195,9 @@ def _validate(args):
         from simulator.solve.train import TRAIN_REFUSALS
 
         print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); `run` and `report` "
-              f"run the train, `assumptions` and `screen` check it bed by bed, `size --bed K` sizes one bed; not yet "
-              f"for a train: "
-              f"{', '.join(TRAIN_REFUSALS)}")
+              f"run the train, `assumptions` and `screen` check it bed by bed, `size --bed K` sizes one bed, `sweep` "
+              f"and `uncertainty` run the whole train per case (paths such as train.0.tube.length)"
+              + (f"; not yet for a train: {', '.join(TRAIN_REFUSALS)}" if TRAIN_REFUSALS else ""))
     for line in ready.notes:
         print(f"note: {line}")
     for line in ready.warnings:

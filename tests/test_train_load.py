@@ -103,16 +103,13 @@ heat = { mode = "adiabatic" }
 """
 
 
-@pytest.mark.parametrize("argv", [["sweep", "--vary", "feed.temperature=690 K..700 K in 2"],
-                                  ["uncertainty", "--samples", "4"]])     # the other verbs: tests/test_train_run.py
-def test_cli_refuses_a_train_in_one_line_with_exit_2(tmp_path, capsys, argv):
+def test_cli_sweeps_a_train(tmp_path, capsys):
+    # sweeps run the whole train per case (tests/test_train_sweep.py checks the rows)
     from simulator.cli import main
 
     path = tmp_path / "train.toml"
     path.write_text(TRAIN_TOML)
-    assert main([argv[0], str(path), *argv[1:], "--out", str(tmp_path / "out")]) == 2
-    err = capsys.readouterr().err.strip().splitlines()
-    assert len(err) == 1 and "train: a reactor train" in err[0]
+    assert main(["sweep", str(path), "--vary", "feed.temperature=690 K..700 K in 2", "--out", str(tmp_path / "out")]) == 0
 
 
 def test_inlet_flows_enter_the_tube_exactly():

@@ -252,15 +252,11 @@ def test_validate_says_the_train_runs_and_other_verbs_refuse_in_one_line(cases_d
     assert main(["validate", str(cases_dir / DEMO)]) == 0
     out = capsys.readouterr().out
     assert "`run` and `report` run the train, `assumptions` and `screen` check it bed by bed, `size --bed K`" in out
+    assert "`sweep` and `uncertainty` run the whole train per case" in out
     assert "not screened: train[1] (adiabatic), train[2] (adiabatic), train[3] (adiabatic)" in out
     assert main(["size", str(cases_dir / DEMO), "--out", str(tmp_path / "size")]) == 2
     err = capsys.readouterr().err.strip().splitlines()
     assert len(err) == 1 and "give --bed K (1 to 3)" in err[0]
-    assert main(["sweep", str(cases_dir / DEMO), "--vary", "feed.temperature=680 K..700 K in 2",
-                 "--out", str(tmp_path / "sweep")]) == 2
-    err = capsys.readouterr().err.strip().splitlines()
-    assert len(err) == 1 and "`report`, `assumptions`, `screen` (bed by bed) and `size --bed K`; sweep: sweeps run one " \
-        "tube per case" in err[0]
 
 
 # ----------------------------------------------------------------------------- assumptions and screening per bed

@@ -254,14 +254,12 @@ def train_closure(model, inputs, beds, steps):
 
 
 #: Verbs that do not run a train yet, each with its one-line reason (the CLI refuses them, validate lists them).
-TRAIN_REFUSALS = {
-    "sweep": "sweeps run one tube per case; a train cannot be swept yet",
-    "uncertainty": "uncertainty samples run one tube per case; a train cannot be sampled yet",
-}
+TRAIN_REFUSALS = {}     # every verb runs a train (sweep and uncertainty per case, the whole train each)
 
 
 def refuse_train(case, verb):
     """Raise the one-line CaseError of a verb that does not run a train (no-op for a single tube)."""
     if case.train and verb in TRAIN_REFUSALS:
         raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is run by `tubesim run`, "
-                        f"`report`, `assumptions`, `screen` (bed by bed) and `size --bed K`; {verb}: {TRAIN_REFUSALS[verb]}.")
+                        f"`report`, `assumptions`, `screen` (bed by bed), `size --bed K`, `sweep` and `uncertainty`; "
+                        f"{verb}: {TRAIN_REFUSALS[verb]}.")

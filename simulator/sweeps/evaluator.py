@@ -8,7 +8,10 @@ task) and solves it.
 The design temperature limit does not stop sweep runs: a runaway map and an
 exceedance probability need the true hot spot. Runs stop only at an internal
 guard of max(T_feed, T_medium) + 3 dT_ad + 500 K (status "stopped"; its hot spot
-is then a lower bound, recorded as the guard temperature).
+is then a lower bound, recorded as the guard temperature). A reactor train (``[[train]]``) runs
+whole per case (``simulate_train``): its row is the hottest bed's hot spot (position along the
+train), the overall conversion on everything fed and the train outlet; it keeps the case's
+temperature limit (each bed stops there, the train then reports "stopped").
 """
 import dataclasses
 import math
@@ -36,6 +39,8 @@ class TubeEvaluator:
         raw_case = dict(raw_case, design={k: v for k, v in raw_case.get("design", {}).items()
                                           if k != "temperature_limit"})   # sweeps ignore the limit (docstring)
         case = load_case_dict(raw_case, source_path="", case_dir=str(case_dir))
+        if case.train:
+            return _train_row(case)
         species = _species(case)
         model = build_model(case, species=species)
         guard = _guard(case, model)
@@ -52,6 +57,30 @@ class TubeEvaluator:
             "outlet_pressure_Pa": float(result.P[-1]),
             "error": None if result.status == "completed" else result.termination,
         }
+
+
+def _train_row(case):
+    """The results row of a reactor train: the hottest bed's hot spot (position along the whole train),
+    the overall conversion on everything fed and the train outlet (:mod:`simulator.solve.train`)."""
+    from simulator.solve.train import simulate_train
+
+    train = simulate_train(case)
+    if train.status == "failed":
+        raise RuntimeError(train.termination)
+    offsets = [0.0]
+    for bed in train.beds[:-1]:
+        offsets.append(offsets[-1] + float(bed.z[-1]))
+    k = max(range(len(train.beds)), key=lambda i: train.beds[i].hot_spot["temperature_K"])
+    hottest, last = train.beds[k], train.beds[-1]
+    return {
+        "status": train.status,
+        "hot_spot_temperature_K": hottest.hot_spot["temperature_K"],
+        "hot_spot_position_m": offsets[k] + hottest.hot_spot["position_m"],
+        "outlet_conversion": train.overall_conversion,
+        "outlet_temperature_K": float(last.T[-1]),
+        "outlet_pressure_Pa": float(last.P[-1]),
+        "error": None if train.status == "completed" else train.termination,
+    }
 
 
 def _guard(case, model):
