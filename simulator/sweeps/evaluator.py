@@ -10,8 +10,8 @@ exceedance probability need the true hot spot. Runs stop only at an internal
 guard of max(T_feed, T_medium) + 3 dT_ad + 500 K (status "stopped"; its hot spot
 is then a lower bound, recorded as the guard temperature). A reactor train (``[[train]]``) runs
 whole per case (``simulate_train``): its row is the hottest bed's hot spot (position along the
-train), the overall conversion on everything fed and the train outlet; it keeps the case's
-temperature limit (each bed stops there, the train then reports "stopped").
+train), the overall conversion on everything fed and the train outlet; as for a tube, the design
+temperature limit does not stop it (each bed keeps its step budget; the runaway guard is per tube only).
 """
 import dataclasses
 import math
