@@ -39,15 +39,19 @@ def wall_block(case, result):
     out = []
     if np.any(np.isfinite(U)):
         u = s["overall_coefficient_W_per_m2K"]
-        paragraphs.append(f"U on the inner wall area: {fmt(u['inlet'], 4)} W/(m^2*K) at the inlet, {fmt(u['outlet'], 4)} at "
-                          f"the outlet (range {fmt(u['min'], 4)} to {fmt(u['max'], 4)}).")
+        if case.heat.coefficient is None:
+            paragraphs[0] = (f"Wall heat transfer: a typed U = {fmt(u['inlet'], 4)} W/(m²·K) on the inner wall area, "
+                             "constant along the tube (heat.overall_coefficient).")
+        else:
+            paragraphs.append(f"U on the inner wall area: {fmt(u['inlet'], 4)} W/(m²·K) at the inlet, "
+                              f"{fmt(u['outlet'], 4)} at the outlet (range {fmt(u['min'], 4)} to {fmt(u['max'], 4)}).")
         if case.heat.coefficient is not None:
             series = {"Overall U (inner area)": U}
             if np.any(np.isfinite(wall["inside_coefficient_W_per_m2K"])):
                 series["Inside coefficient h_i"] = wall["inside_coefficient_W_per_m2K"]
             out.append({"title": "Heat-transfer coefficient", "caption": "U and the process-side coefficient along "
                         "the tube, from the local flow (the wall, outside and fouling resistances are constant).",
-                        "uri": plots.profile_lines_plot(z, series, "Coefficient [W/(m^2*K)]")})
+                        "uri": plots.profile_lines_plot(z, series, "Coefficient [W/(m²·K)]")})
     if s["max_wall_temperature_K"] is not None:
         paragraphs.append(f"Hottest tube wall {fixed(s['max_wall_temperature_K'])} K at z = "
                           f"{fmt(s['max_wall_temperature_position_m'], 3)} m ({wall['basis'].split(' (')[0]}).")
@@ -72,8 +76,9 @@ def wall_block(case, result):
     if np.any(np.isfinite(flux)) and case.heat.arrangement != "wall-profile":
         out.append({"title": "Wall heat flux", "caption": "Heat flux on the inner wall into the gas (negative: the "
                     "gas is cooled).", "uri": plots.profile_lines_plot(z, {"Heat flux into the gas": flux / 1e3},
-                                                                        "Heat flux [kW/m^2]")})
+                                                                        "Heat flux [kW/m²]")})
+    spread = ("the correlations behind U carry a spread of typically 20 % or more" if case.heat.coefficient is not None
+              else "a typed U is only as good as its source; the screening shows how the hot spot moves with it")
     paragraphs.append("Check the tube-metal temperature against the alloy's allowable temperature and the flux "
-                      "against the design flux by the applicable codes and licensed engineering practice; the "
-                      "correlations carry a spread of typically 20 % or more.")
+                      f"against the design flux by the applicable codes and licensed engineering practice; {spread}.")
     return {"available": True, "paragraphs": paragraphs, "plots": out}
