@@ -35,6 +35,9 @@ REFERENCES = {
                      "Computing, IMACS Trans., vol. 1, pp. 55-64, 1983; L. Petzold, \"Automatic selection of "
                      "methods for solving stiff and nonstiff systems of ODEs,\" SIAM J. Sci. Stat. Comput., "
                      "vol. 4, pp. 136-148, 1983 (LSODA, via scipy.integrate.odeint).",
+    "hindmarsh2005": "A.C. Hindmarsh et al., \"SUNDIALS: Suite of nonlinear and differential/algebraic equation "
+                     "solvers,\" ACM Trans. Math. Softw., vol. 31, no. 3, pp. 363-396, 2005, "
+                     "doi:10.1145/1089014.1089020 (CVODE, via scikit-sundae).",
     "semenov1928": "N.N. Semenov, \"Zur Theorie des Verbrennungsprozesses,\" Z. Phys., vol. 48, pp. 571-582, 1928.",
     "barkelew1959": "C.H. Barkelew, \"Stability of chemical reactors,\" Chem. Eng. Prog. Symp. Ser., vol. 55, "
                     "no. 25, pp. 37-46, 1959.",

@@ -20,7 +20,7 @@ LAYERS = [
     ("errors", "units", "references", "fileio", "verdicts"),
     ("case", "thermo", "kinetics"),
     ("model", "results", "network"),
-    ("solve", "output"),
+    ("solve", "output", "mechanism"),
     ("sweeps",),
     ("screening", "assumptions", "sizing", "readiness"),
     ("report",),

@@ -225,6 +225,7 @@ class Case:
     raw: dict = field(default_factory=dict, compare=False, repr=False)  # the case as written
     source: str = ""                     # source key of published data, if any
     train: tuple = ()                    # TrainBed entries of a reactor train (see simulator.case.train)
+    mechanism: object = None             # MechanismSpec of a [mechanism] case (simulator.case.mechanism_keys)
 
 
 InterstageKind = Literal["cool-to", "heat-to", "quench"]

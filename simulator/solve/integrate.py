@@ -414,6 +414,10 @@ def simulate(case, model=None, length=None):
         raise CaseError(f"{case.source_path}: train: a reactor train ([[train]]) is validated but not yet run by "
                         "any verb; run each bed as a case of its own.")
     with np.errstate(all="ignore"):
+        if case.mechanism is not None:   # a Cantera mechanism as the chemistry: simulator.mechanism
+            from simulator.mechanism.run import simulate_mechanism
+
+            return simulate_mechanism(case, length)
         if case.heat.exchange and arrangement_of(case.heat).boundary_value:
             from simulator.solve.counter_current import simulate_counter_current
 
