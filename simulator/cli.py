@@ -184,7 +184,7 @@ def _validate(args):
 
     ready = check_case(args.case)
     case = ready.case
-    print(f"{args.case}: valid ({len(case.species)} species, {_plural(len(case.reactions), 'reaction')}, "
+    print(f"{args.case}: valid ({len(case.species)} species, {_plural(case.mechanism.reactions_kept if case.mechanism else len(case.reactions), 'reaction')}, "
           f"{_plural(case.tube.count, 'tube')}, heat mode {case.heat.mode}, pressure drop {case.pressure_drop.model})")
     if case.train:
         print(f"note: a reactor train of {len(case.train)} beds (the line above describes bed 1); the [[train]] keys "
@@ -218,7 +218,7 @@ def _assumptions(args):
     from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json
 
-    report = check_assumptions(load_case(args.case))
+    report = check_assumptions(_tube_verb_case(args.case, "assumptions"))
     atomic_write_json(Path(args.out) / "assumptions.json", report)
     print(format_table(report))
     return 0
@@ -231,7 +231,7 @@ def _size(args):
     from simulator.fileio import atomic_write_json
     from simulator.sizing import format_sizing, size
 
-    report = size(load_case(args.case))
+    report = size(_tube_verb_case(args.case, "size"))
     atomic_write_json(Path(args.out) / "sizing.json", report)
     print(format_sizing(report))
     return 0
@@ -246,7 +246,7 @@ def _screen(args):
     from simulator.fileio import atomic_write_json, atomic_write_text
     from simulator.screening.screen import format_screening, screen, screening_json, sensitivity_rows
 
-    report = screen(load_case(args.case))
+    report = screen(_tube_verb_case(args.case, "screen"))
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\n")
     writer.writerow(["parameter", "value_SI", "hot_spot_temperature_K", "normalized_sensitivity"])
@@ -262,11 +262,22 @@ def _screen(args):
 def _report(args):
     from simulator.report.build import write_design_report
 
+    _tube_verb_case(args.case, "report")
     paths = write_design_report(args.case, args.out, pdf=not args.no_pdf, command_line=_command_line())
     for kind, path in paths.items():
         if path:
             print(f"{kind}: {path}")
     return 0
+
+
+def _tube_verb_case(path, verb):
+    """The loaded case for ``verb``; a mechanism case is refused in one line where the verb cannot run it yet."""
+    from simulator.case.load import load_case
+    from simulator.mechanism.verbs import refuse_for_mechanism
+
+    case = load_case(path)
+    refuse_for_mechanism(case, verb)
+    return case
 
 
 _ARGV = []
@@ -284,6 +295,9 @@ def _raw_case(path):
     from simulator.case.load import load_case
 
     case = load_case(path)               # validate the base case first: every problem at once
+    from simulator.mechanism.verbs import refuse_for_mechanism
+
+    refuse_for_mechanism(case, "sweep or uncertainty")
     if case.train:
         from simulator.errors import CaseError
 

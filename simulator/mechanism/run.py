@@ -82,10 +82,14 @@ def simulate_mechanism(case, length=None):
         if defect:
             status, termination = "failed", f"run failed: {defect}"
     ignition = None
+
+    def steps(z0, y0, z1):
+        return steps_between(tube, opts.rtol, atol, opts.max_step, z0, y0, z1)
+
     if status != "failed":
-        ignition = locate_ignition(tube, zs, ys, dTdz, lambda z0, y0, z1: steps_between(
-            tube, opts.rtol, atol, opts.max_step, z0, y0, z1))
-    hot = _hot_spot(case, zs, ys, n, dTdz, stopped=status == "stopped" and traj.event == "temperature_limit")
+        ignition = locate_ignition(tube, zs, ys, dTdz, steps)
+    hot = _hot_spot(case, zs, ys, n, dTdz, stopped=status == "stopped" and traj.event == "temperature_limit",
+                    steps=steps if status != "failed" else None)
     design = _design(case, tube, zs, ys)
     notes = closure_warnings(clos) + _range_warnings(gas, ys, n)
     F = np.maximum(ys[:, :n], 0.0) * tube.count
@@ -121,12 +125,19 @@ def simulate_mechanism(case, length=None):
                          "residence_time_s": tau, "timing": {"total_s": elapsed}})
 
 
-def _hot_spot(case, zs, ys, n, dTdz, stopped):
-    """Highest gas temperature on the trajectory (the output points and the end)."""
+def _hot_spot(case, zs, ys, n, dTdz, stopped, steps=None):
+    """Highest gas temperature: the highest output point, then the highest of the solver's own steps
+    between its neighbours (re-integrated with ``steps(z0, y0, z1)``) when it is an interior maximum."""
     k = int(np.argmax(ys[:, n]))
     T0 = case.feed.temperature
-    T_max = float(ys[k, n])
-    rise_medium = T_max - float(ys[k, n + 2]) if case.heat.exchange else None
+    T_max, z_max, y_max = float(ys[k, n]), float(zs[k]), ys[k]
+    interior = 0 < k < len(zs) - 1
+    if interior and steps is not None and case.heat.mode != "isothermal":
+        z_fine, y_fine = steps(zs[k - 1], ys[k - 1], zs[k + 1])
+        j = int(np.argmax(y_fine[:, n]))
+        if y_fine[j, n] > T_max:
+            T_max, z_max, y_max = float(y_fine[j, n]), float(z_fine[j]), y_fine[j]
+    rise_medium = T_max - float(y_max[n + 2]) if case.heat.exchange else None
     if case.heat.mode == "isothermal":
         how = "no hot spot: isothermal tube (the temperature is held at the feed value)"
     elif stopped:
@@ -134,8 +145,8 @@ def _hot_spot(case, zs, ys, n, dTdz, stopped):
     elif k == len(zs) - 1:
         how = "outlet (temperature still rising)" if dTdz[-1] > 0 else "outlet"
     else:
-        how = "highest point of the solver's trajectory (output points)"
-    return {"temperature_K": T_max, "position_m": float(zs[k]), "rise_above_feed_K": T_max - T0,
+        how = "highest point of the solver's own steps"
+    return {"temperature_K": T_max, "position_m": z_max, "rise_above_feed_K": T_max - T0,
             "rise_above_medium_K": rise_medium, "located_by": how}
 
 

@@ -26,7 +26,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time: '
+              'outlet temperature and composition, ignition position',
   'where': "equilibrate('TP'): Gibbs minimisation on the same species data",
   'test': 'tests/test_balances.py::test_reversible_rate_runs_to_the_equilibrium_cantera_computes'},
  {'key': 'fluids',
@@ -43,7 +45,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time: '
+              'outlet temperature and composition, ignition position',
   'where': 'enthalpy balance at fixed composition (HPX) on the same NASA data',
   'test': 'tests/test_balances.py::test_adiabatic_rise_takes_the_worst_case_over_several_reactions'},
  {'key': 'kays_london1984',
@@ -138,6 +142,30 @@ CHECKS = ({'key': 'levenspiel1999',
               'the ideal design of the assumption check, against the closed-form performance equations',
   'where': 'ch. 9, adiabatic operating line T - T0 = dT_ad X (chapter from memory)',
   'test': 'tests/test_liquid.py::test_adiabatic_liquid_follows_the_straight_line'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time: '
+              'outlet temperature and composition, ignition position',
+  'where': 'IdealGasConstPressureReactor marched in time, the same species and reactions',
+  'test': 'tests/test_mechanism.py::test_adiabatic_isobaric_tube_outlet_equals_cantera_reactor_marched_in_time'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time: '
+              'outlet temperature and composition, ignition position',
+  'where': 'IdealGasConstPressureReactor marched in time: largest dT/dz',
+  'test': 'tests/test_mechanism.py::test_ignition_position_within_one_percent_of_cantera_reactor'},
  {'key': 'levenspiel1999',
   'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
   'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
@@ -210,7 +238,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time: '
+              'outlet temperature and composition, ignition position',
   'where': "equilibrate('TP') on the same 1-bar species file",
   'test': 'tests/test_physics_fixes.py::test_equilibrium_uses_the_reference_pressure_of_the_species_file'},
  {'key': 'cantera',
@@ -220,7 +250,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time: '
+              'outlet temperature and composition, ignition position',
   'where': "mixture-averaged viscosity (Wilke's rule over its species viscosity fits)",
   'test': 'tests/test_physics_fixes.py::test_kernel_viscosity_follows_the_local_composition_as_cantera'},
  {'key': 'ergun1952',
@@ -448,7 +480,9 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time: '
+              'outlet temperature and composition, ignition position',
   'where': "Peng-Robinson chemical potentials of Cantera's own PR phase",
   'test': 'tests/test_real_gas.py::test_reversible_reaction_on_peng_robinson_reaches_fugacity_equilibrium'},
  {'key': 'semenov1928',
