@@ -77,8 +77,9 @@ def solve_tube(tube, zs, rtol, atol, max_step=0.0, temperature_limit=float("nan"
         soln = solver.solve(np.asarray(zs, dtype=float), tube.y0.copy())
     except (ArithmeticError, ValueError, RuntimeError) as err:    # CanteraError is a RuntimeError
         z_fail = tube.last_z
-        return Trajectory(z=np.asarray(zs[:1]), y=tube.y0[None, :].copy(), ok=False,
-                          message=f"the balances could not be evaluated near z = {z_fail:.6g} m ({_first_line(err)})")
+        message = f"the balances could not be evaluated near z = {z_fail:.6g} m ({_first_line(err)})"
+        z, y = _reached_before(solver, tube, np.asarray(zs, dtype=float), z_fail)
+        return Trajectory(z=z, y=y, ok=False, message=message)
     z, y = np.asarray(soln.t, dtype=float), np.asarray(soln.y, dtype=float)
     finite = np.all(np.isfinite(y), axis=1)
     if not finite.all():
@@ -92,6 +93,20 @@ def solve_tube(tube, zs, rtol, atol, max_step=0.0, temperature_limit=float("nan"
         flags = np.asarray(soln.i_events)[-1]
         event = EVENT_NAMES[int(np.nonzero(flags)[0][0])]
     return Trajectory(z=z, y=y, ok=True, message="integration successful", event=event)
+
+
+def _reached_before(solver, tube, zs, z_fail):
+    """The output points before ``z_fail`` (the same solve again, stopped short of it); just the inlet when
+    that fails too. The balances raised there, so the trajectory beyond is never used."""
+    short = zs[zs < z_fail]
+    if len(short) >= 3:                  # the last point below z_fail may need a step beyond it: leave it out
+        try:
+            soln = solver.solve(short[:-1], tube.y0.copy())
+            if soln.success:
+                return np.asarray(soln.t, dtype=float), np.asarray(soln.y, dtype=float)
+        except (ArithmeticError, ValueError, RuntimeError):
+            pass                         # the inlet alone is what is known to be good
+    return zs[:1], tube.y0[None, :].copy()
 
 
 def _first_line(err):
