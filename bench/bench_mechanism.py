@@ -14,7 +14,7 @@ within one round-robin, so the machine state is shared):
   parcel has travelled the tube (z accumulated from dz = u dt), the outlet interpolated at z = L;
 * ``simulate``: the whole run (CVODE + ignition + hot spot + closure, Result built);
 * ``solve_tube``: CVODE alone with the Cantera-derivative Jacobian (no post-processing);
-* ``scipy LSODA``: the same right-hand side and Jacobian through ``scipy.integrate.solve_ivp``.
+* ``scipy LSODA`` and ``scipy BDF``: the same right-hand side and Jacobian through ``scipy.integrate.solve_ivp``.
 
 Prints the median milliseconds, the ratio to the baseline and the outlet temperature of each
 (they must agree within 1 K). Not a test: numbers depend on the machine's load.
@@ -79,7 +79,7 @@ def ours_solve_tube(case):
     return float(traj.y[-1, tube.n])
 
 
-def ours_scipy_lsoda(case):
+def ours_scipy_lsoda(case, method="LSODA"):
     from scipy.integrate import solve_ivp
 
     from simulator.case.mechanism_keys import mechanism_solution
@@ -94,7 +94,7 @@ def ours_scipy_lsoda(case):
         tube.jacobian(z, y, tube.derivative(z, y), J)
         return J
 
-    sol = solve_ivp(tube.derivative, (0.0, LENGTH), tube.y0, method="LSODA", rtol=RTOL,
+    sol = solve_ivp(tube.derivative, (0.0, LENGTH), tube.y0, method=method, rtol=RTOL,
                     atol=tube.absolute_tolerance(case.solver.atol_scale), jac=jac)
     return float(sol.y[tube.n, -1])
 
@@ -109,7 +109,8 @@ def main(argv=None):
     variants = {"baseline: Cantera IdealGasConstPressureReactor": cantera_reactor,
                 "simulate (CVODE, whole run)": lambda: ours_simulate(case),
                 "solve_tube (CVODE alone)": lambda: ours_solve_tube(case),
-                "scipy LSODA, same RHS and Jacobian": lambda: ours_scipy_lsoda(case)}
+                "scipy LSODA, same RHS and Jacobian": lambda: ours_scipy_lsoda(case),
+                "scipy BDF, same RHS and Jacobian": lambda: ours_scipy_lsoda(case, "BDF")}
     for fn in variants.values():       # warm-up: imports, mechanism loads
         fn()
     times = {k: [] for k in variants}
