@@ -189,7 +189,7 @@ def _validate(args):
 
     ready = check_case(args.case)
     case = ready.case
-    print(f"{args.case}: valid ({len(case.species)} species, {_plural(len(case.reactions), 'reaction')}, "
+    print(f"{args.case}: valid ({len(case.species)} species, {_plural(case.mechanism.reactions_kept if case.mechanism else len(case.reactions), 'reaction')}, "
           f"{_plural(case.tube.count, 'tube')}, heat mode {case.heat.mode}, pressure drop {case.pressure_drop.model})")
     if case.train:
         from simulator.solve.train import TRAIN_REFUSALS
@@ -245,10 +245,9 @@ def _assumptions(args):
     from pathlib import Path
 
     from simulator.assumptions import check_assumptions, format_table
-    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json
 
-    case = load_case(args.case)
+    case = _tube_verb_case(args.case, "assumptions")
     if case.train:
         from simulator.train_checks import format_train_assumptions, train_assumptions
 
@@ -265,11 +264,10 @@ def _assumptions(args):
 def _size(args):
     from pathlib import Path
 
-    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json
     from simulator.sizing import format_sizing, size
 
-    case = load_case(args.case)
+    case = _tube_verb_case(args.case, "size")
     if case.train or args.bed is not None:
         from simulator.errors import CaseError
         from simulator.train_sizing import format_train_sizing, size_train_bed
@@ -295,11 +293,10 @@ def _screen(args):
     import io
     from pathlib import Path
 
-    from simulator.case.load import load_case
     from simulator.fileio import atomic_write_json, atomic_write_text
     from simulator.screening.screen import format_screening, screen, screening_json, sensitivity_rows
 
-    case = load_case(args.case)
+    case = _tube_verb_case(args.case, "screen")
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\n")
     if case.train:
@@ -323,10 +320,9 @@ def _screen(args):
 
 
 def _report(args):
-    from simulator.case.load import load_case
     from simulator.report.build import write_design_report
 
-    case = load_case(args.case)
+    case = _tube_verb_case(args.case, "report")
     if case.train:
         from simulator.report.train_report import write_train_report
 
@@ -337,6 +333,16 @@ def _report(args):
         if path:
             print(f"{kind}: {path}")
     return 0
+
+
+def _tube_verb_case(path, verb):
+    """The loaded case for ``verb``; a mechanism case is refused in one line where the verb cannot run it yet."""
+    from simulator.case.load import load_case
+    from simulator.mechanism.verbs import refuse_for_mechanism
+
+    case = load_case(path)
+    refuse_for_mechanism(case, verb)
+    return case
 
 
 _ARGV = []
@@ -352,10 +358,11 @@ def _raw_case(path, verb):
     from pathlib import Path
 
     from simulator.case.load import load_case
-
+    from simulator.mechanism.verbs import refuse_for_mechanism
     from simulator.solve.train import refuse_train
 
     case = load_case(path)               # validate the base case first: every problem at once
+    refuse_for_mechanism(case, verb)
     refuse_train(case, verb)
     return case.raw, str(Path(path).resolve().parent)
 

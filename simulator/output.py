@@ -73,6 +73,11 @@ def print_summary(result, stream=None):
                          f"V = {d['volume_m3']:.4g} m3 (all tubes){extra}")
         else:
             lines.append(f"  target X = {d['target_conversion']:.4g}    not reached in this tube")
+    if "ignition" in s:                  # a mechanism run (simulator.mechanism.run)
+        ig = s["ignition"]
+        lines.append("  ignition          none (no rise of 50 K above the feed or medium)" if ig is None else
+                     f"  ignition          z = {ig['position_m']:.4g} m, residence time {ig['residence_time_s']:.4g} s, "
+                     f"T = {ig['temperature_K']:.2f} K (largest dT/dz)")
     rise = s["adiabatic_temperature_rise_K"]
     if rise is not None:
         bound = (", an upper bound: reversible reactions taken to completion"

@@ -47,6 +47,10 @@ def check_case(path):
     from simulator.sweeps.sampling import parse_uncertainty
 
     case = load_case(path)
+    if case.mechanism is not None:       # a Cantera mechanism case: simulator.mechanism.verbs
+        from simulator.mechanism.verbs import readiness_notes
+
+        return Readiness(case=case, warnings=plausibility_warnings(case), notes=readiness_notes(case))
     where = f"{case.source_path}: " if case.source_path else ""
     problems = []
     model = None

@@ -37,6 +37,9 @@ REFERENCES = {
                      "vol. 4, pp. 136-148, 1983 (LSODA, via scipy.integrate.odeint).",
     "villadsen_stewart1967": "J.V. Villadsen, W.E. Stewart, \"Solution of boundary-value problems by orthogonal "
                              "collocation,\" Chem. Eng. Sci., vol. 22, no. 11, pp. 1483-1501, 1967.",
+    "hindmarsh2005": "A.C. Hindmarsh et al., \"SUNDIALS: Suite of nonlinear and differential/algebraic equation "
+                     "solvers,\" ACM Trans. Math. Softw., vol. 31, no. 3, pp. 363-396, 2005, "
+                     "doi:10.1145/1089014.1089020 (CVODE, via scikit-sundae).",
     "semenov1928": "N.N. Semenov, \"Zur Theorie des Verbrennungsprozesses,\" Z. Phys., vol. 48, pp. 571-582, 1928.",
     "barkelew1959": "C.H. Barkelew, \"Stability of chemical reactors,\" Chem. Eng. Prog. Symp. Ser., vol. 55, "
                     "no. 25, pp. 37-46, 1959.",

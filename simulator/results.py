@@ -113,7 +113,7 @@ class Result:
                 "closure": {"elements_relative": None, "energy_relative": None},
                 "max_compressibility_deviation": None, "events": self.events, "warnings": list(self.warnings),
                 "solver": self.solver_stats, "references": list(self.references), "versions": self.versions,
-                **self._steady_states_block(),
+                **self._steady_states_block(), **self.extra.get("summary_blocks", {}),
             }
         return {
             "title": self.case.title,
@@ -222,8 +222,10 @@ class Result:
         """(header, rows) for ``profile.csv``: one row per axial point."""
         header = ["position_m", "temperature_K", "pressure_Pa", "medium_temperature_K", "compressibility_Z",
                   f"conversion_{self.key_species}", "heat_added_W"]
-        header += [f"molar_flow_{s}_mol_per_s" for s in self.species]
-        header += [f"mole_fraction_{s}" for s in self.species]
+        listed = self.extra.get("profile_species", self.species)   # a mechanism run lists the species present
+        columns = [self.species.index(s) for s in listed]
+        header += [f"molar_flow_{s}_mol_per_s" for s in listed]
+        header += [f"mole_fraction_{s}" for s in listed]
         cooled = self.case.heat.exchange
         wall = self.extra.get("wall") if cooled else None
         if wall:
@@ -242,7 +244,7 @@ class Result:
         for k in range(len(self.z)):
             row = [self.z[k], self.T[k], self.P[k], self.Tc[k] if cooled else float("nan"), self.Z[k], X[k],
                    self.Q[k]]
-            row += list(self.F[k]) + list(x[k])
+            row += list(self.F[k, columns]) + list(x[k, columns])
             if wall:
                 row += [wall[c][k] for c in WALL_COLUMNS]
             row += [network[c][k] for c in network]

@@ -20,7 +20,7 @@ LAYERS = [
     ("errors", "units", "references", "fileio", "verdicts"),
     ("case", "thermo", "kinetics"),
     ("model", "results", "network", "network_results"),
-    ("solve", "output", "train_output"),
+    ("solve", "output", "train_output", "mechanism"),
     ("sweeps",),
     ("screening", "assumptions", "radial_assumption", "sizing", "readiness", "train_checks", "train_sizing"),
     ("report",),

@@ -25,8 +25,10 @@ from simulator.report.build import write_design_report
 from simulator.report.validation import collect_published_checks, internal_notes, published_checks, snapshot_text
 
 ROOT = Path(__file__).resolve().parents[1]
-# single-tube demos: a reactor train gets the train report (tests/test_train_run.py)
-DEMOS = sorted(p.name for p in (ROOT / "cases").glob("*.toml") if "[[train]]" not in p.read_text())
+# single-tube demos: a reactor train gets the train report (tests/test_train_run.py); mechanism demos
+# ([mechanism]) are left out: report refuses them in one line for now (tests/test_mechanism.py)
+DEMOS = sorted(p.name for p in (ROOT / "cases").glob("*.toml")
+               if "[[train]]" not in p.read_text() and not p.name.startswith("mechanism_"))
 PDF_CASE = "hydrogenation_cooled_packed_bed.toml"     # cooled, exothermic: every section filled
 FAST_CASE = "decomposition_empty_tube.toml"          # isothermal: no screening, quick
 

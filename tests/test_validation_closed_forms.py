@@ -399,6 +399,11 @@ def test_demo_case_flows_follow_stoichiometry(demo_result):
     for j, reaction in enumerate(case.reactions):
         for s, v in reaction.stoichiometry:
             nu[index[s], j] = v
+    if case.mechanism is not None:       # a mechanism case: its kept reactions, species in the same order
+        from simulator.case.mechanism_keys import mechanism_solution
+
+        gas = mechanism_solution(case.mechanism.path, case.mechanism.phase, case.mechanism.species)
+        nu = np.asarray(gas.product_stoich_coeffs - gas.reactant_stoich_coeffs, dtype=float)
     dF = demo_result.F[-1] - demo_result.F[0]
     extents, *_ = np.linalg.lstsq(nu, dF, rcond=None)
     assert np.max(np.abs(nu @ extents - dF)) <= 1e-9 * demo_result.F[0].sum()

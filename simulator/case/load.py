@@ -264,6 +264,10 @@ def load_case_dict(raw, source_path="", case_dir=None):
         from simulator.case.train import load_train_case
 
         return load_train_case(raw, source_path, case_dir, load_case_dict)
+    if "mechanism" in raw:               # a Cantera mechanism is the chemistry: simulator.case.mechanism_keys
+        from simulator.case.mechanism_keys import load_mechanism_case
+
+        return load_mechanism_case(raw, source_path, case_dir)
     ck = _Checker(where)
     ck.keys(raw, KEYS[""], "")
 

@@ -234,6 +234,7 @@ class Case:
     source: str = ""                     # source key of published data, if any
     train: tuple = ()                    # TrainBed entries of a reactor train (see simulator.case.train)
     radial: RadialSettings = field(default_factory=RadialSettings)   # [model] radial (simulator.case.radial_keys)
+    mechanism: object = None             # MechanismSpec of a [mechanism] case (simulator.case.mechanism_keys)
 
 
 InterstageKind = Literal["cool-to", "heat-to", "quench"]

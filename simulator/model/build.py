@@ -83,6 +83,9 @@ def build_model(case, species=None, constant_moles=False):
     -------
     Model
     """
+    if case.mechanism is not None:      # runs in simulator.mechanism, not in the compiled kernel
+        raise CaseError(f"{case.source_path}: mechanism: not yet for mechanism cases (this verb runs the compiled "
+                        "kernel, which has no Cantera mechanism); run works.")
     species = species or build_species_data(case.species, case.thermo)
     names = species.names
     n, m = len(names), len(case.reactions)

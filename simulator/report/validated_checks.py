@@ -26,7 +26,11 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
   'where': "equilibrate('TP'): Gibbs minimisation on the same species data",
   'test': 'tests/test_balances.py::test_reversible_rate_runs_to_the_equilibrium_cantera_computes'},
  {'key': 'fluids',
@@ -43,7 +47,11 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
   'where': 'enthalpy balance at fixed composition (HPX) on the same NASA data',
   'test': 'tests/test_balances.py::test_adiabatic_rise_takes_the_worst_case_over_several_reactions'},
  {'key': 'kays_london1984',
@@ -165,6 +173,62 @@ CHECKS = ({'key': 'levenspiel1999',
               'Clausius-Clapeyron vapour pressures worked by hand',
   'where': "Raoult's law bubble pressure with Clausius-Clapeyron vapour pressures",
   'test': 'tests/test_liquid_extras.py::test_boiling_check_warns_where_the_bubble_pressure_exceeds_the_pressure'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
+  'where': 'IdealGasConstPressureReactor marched in time, the same species and reactions',
+  'test': 'tests/test_mechanism.py::test_adiabatic_isobaric_tube_outlet_equals_cantera_reactor_marched_in_time'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
+  'where': 'IdealGasConstPressureReactor marched in time: largest dT/dz',
+  'test': 'tests/test_mechanism.py::test_ignition_position_within_one_percent_of_cantera_reactor'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
+  'where': "equilibrate('HP') on the same species",
+  'test': 'tests/test_mechanism.py::test_long_adiabatic_tube_reaches_cantera_equilibrium'},
+ {'key': 'cantera',
+  'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
+              "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "
+              '3.2, https://www.cantera.org',
+  'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
+              'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
+              'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
+  'where': 'ExtensibleIdealGasConstPressureReactor with wall and pressure hooks',
+  'test': 'tests/test_mechanism.py::test_cooled_tube_with_friction_equals_cantera_reactor_with_wall_and_pressure_hooks'},
  {'key': 'levenspiel1999',
   'citation': 'O. Levenspiel, Chemical Reaction Engineering, 3rd ed., Wiley, 1999, ch. 5',
   'compared': 'Volume of an isothermal plug-flow reactor with change in moles (first and second order), and '
@@ -245,7 +309,11 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
   'where': "equilibrate('TP') on the same 1-bar species file",
   'test': 'tests/test_physics_fixes.py::test_equilibrium_uses_the_reference_pressure_of_the_species_file'},
  {'key': 'cantera',
@@ -255,7 +323,11 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
   'where': "mixture-averaged viscosity (Wilke's rule over its species viscosity fits)",
   'test': 'tests/test_physics_fixes.py::test_kernel_viscosity_follows_the_local_composition_as_cantera'},
  {'key': 'ergun1952',
@@ -497,7 +569,11 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
   'where': "Peng-Robinson chemical potentials of Cantera's own PR phase",
   'test': 'tests/test_real_gas.py::test_reversible_reaction_on_peng_robinson_reaches_fugacity_equilibrium'},
  {'key': 'semenov1928',
@@ -686,7 +762,11 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
   'where': "equilibrate('TP') of N2/H2/NH3 (gri30 thermo, ideal gas)",
   'test': 'tests/test_temkin.py::test_temkin_rate_vanishes_at_the_equilibrium_cantera_computes'},
  {'key': 'coolprop',
@@ -744,7 +824,11 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Equilibrium reached by reversible rates (ideal gas and Peng-Robinson fugacities) against '
               'Gibbs-energy minimisation on the same species data; adiabatic temperature rise against an '
               'enthalpy balance on the same data; mixture viscosity (Wilke rule on pure-species fits) '
-              'against its mixture-averaged transport',
+              'against its mixture-averaged transport; a detailed-mechanism tube (adiabatic, isobaric, '
+              'hydrogen/air on GRI-Mech 3.0 species) against its constant-pressure reactor marched in time '
+              '(outlet temperature and composition, ignition position) and against its equilibrium at '
+              'constant enthalpy and pressure; a cooled mechanism tube with friction against its extensible '
+              'reactor carrying the wall heat and pressure drop',
   'where': 'mixture enthalpy: Quantity mixing at constant H and P',
   'test': 'tests/test_train_run.py::test_quench_mixed_temperature_against_cantera_mixing'},
  {'key': 'levenspiel1999',

@@ -420,6 +420,10 @@ def simulate(case, model=None, length=None):
 
         return simulate_radial(case, model, length)
     with np.errstate(all="ignore"):
+        if case.mechanism is not None:   # a Cantera mechanism as the chemistry: simulator.mechanism
+            from simulator.mechanism.run import simulate_mechanism
+
+            return simulate_mechanism(case, length)
         if case.heat.exchange and arrangement_of(case.heat).boundary_value:
             from simulator.solve.counter_current import simulate_counter_current
 
