@@ -20,6 +20,8 @@ Thresholds (overridable in the case's ``[assumptions]`` table):
   in total moles per mole of key species of the reaction that consumes it most —
   common practice, no source (the expansion factor itself is the classical one,
   Levenspiel 1999, ch. 3).
+* ``no_pellet_gradients`` (with ``[catalyst]``): 1 - min eta along the tube (eta from the pellet
+  model) against 0.05; the variant is the same case with eta = 1.
 * ``one_dimensional`` (packed beds only): the centre-line hot-spot rise of the 2-D model against
   the 1-D one, see :mod:`simulator.radial_assumption`.
 """
@@ -45,6 +47,7 @@ def ideal_case(case):
         heat=dataclasses.replace(case.heat, mode="isothermal", overall_coefficient=0.0, arrangement="",
                                  medium_temperature=NAN,
                                  medium_mass_flow=NAN, medium_cp=NAN, coefficient=None),
+        catalyst=None,                       # intrinsic rates: the textbook design has no pellet limits
         pressure_drop=dataclasses.replace(case.pressure_drop, model="none"),
         thermo=case.thermo if case.thermo.equation_of_state == "liquid"   # a liquid stays a liquid
         else dataclasses.replace(case.thermo, equation_of_state="ideal-gas"),
@@ -174,6 +177,9 @@ def check_assumptions(case):
                                        "5 % (common practice)" if th.constant_moles == 0.05
                                        else "case [assumptions] table")
     entries["constant_moles"]["epsilon"] = eps
+    # pellets free of internal gradients ([catalyst]): the same case with eta = 1
+    if getattr(case, "catalyst", None) is not None:
+        entries["no_pellet_gradients"] = _pellet_entry(case, full_result, full)
     # one-dimensional tube (packed beds): the 2-D model of the same case (simulator.radial_assumption)
     if case.bed is not None:
         entries["one_dimensional"] = one_dimensional_entry(case, full_result, _numbers, _change, _conversion_change)
@@ -208,6 +214,30 @@ def _entry(value, threshold, unit, variant, full, case, label_variant, label_ful
             "design_change_percent": change, "design_change_basis": basis,
             "outlet_conversion_change": _conversion_change(variant, full),
             "measure": measure, "threshold_source": threshold_source}
+
+
+#: largest loss of rate to pellet diffusion, 1 - eta, taken as none, [-] (common practice, no source)
+PELLET_THRESHOLD = 0.05
+
+
+def _pellet_entry(case, full_result, full):
+    """``no_pellet_gradients``: 1 - min eta along the tube against 0.05; the variant is the case with eta = 1.
+
+    eta from the pellet model of the run (:mod:`simulator.model.pellet_block`); details give the
+    Weisz-Prater number at the inlet (Weisz & Prater 1954: well below 1 no internal limitation).
+    """
+    block = full_result.summary().get("pellet")
+    value = None
+    if block:
+        value = 1.0 - min(e["min"] for e in block["effectiveness"].values())
+    variant = _numbers(simulate(dataclasses.replace(case, catalyst=None)))
+    entry = _entry(value, PELLET_THRESHOLD, "-", variant, full, case, "variant without pellet limits (eta = 1)",
+                   "full", "1 - min eta: the largest share of a rate lost to diffusion in the pellets",
+                   "eta >= 0.95 (common practice, no source)")
+    entry["details"] = {"weisz_prater_inlet": block["weisz_prater_inlet"] if block else None,
+                        "weisz_prater_source": "Weisz & Prater (1954): C_WP << 1 no internal limitation, >> 1 strong",
+                        "pellet_model": block["model"] if block else None}
+    return entry
 
 
 def _ideal_gas_entry(case, full_result, full):
@@ -272,10 +302,10 @@ def format_table(report):
              f"  design change (ideal vs full): "
              + (f"{report['design_change_percent']:+.1f} %" if report["design_change_percent"] is not None
                 else f"not computed ({report['design_change_basis']})"),
-             f"  {'assumption':16s}{'value':>12s}{'threshold':>12s}{'unit':>5s}{'verdict':>9s}{'level':>13s}{'design change':>16s}"]
+             f"  {'assumption':20s}{'value':>12s}{'threshold':>12s}{'unit':>5s}{'verdict':>9s}{'level':>13s}{'design change':>16s}"]
     for name, e in report["assumptions"].items():
         change = "-" if e["design_change_percent"] is None else f"{e['design_change_percent']:+.2f} %"
-        lines.append(f"  {name:16s}{fmt(e['value']):>12s}{fmt(e['threshold']):>12s}{e['unit']:>5s}"
+        lines.append(f"  {name:20s}{fmt(e['value']):>12s}{fmt(e['threshold']):>12s}{e['unit']:>5s}"
                      f"{e['verdict']:>9s}{e['level']:>13s}{change:>16s}")
     rise = report["adiabatic_temperature_rise_K"]
     lines.append("  adiabatic temperature rise: " + ("not defined" if rise is None else f"{rise:+.1f} K"))

@@ -80,6 +80,12 @@ REFERENCES = {
     "andrade1930": "E.N. da C. Andrade, \"The viscosity of liquids,\" Nature, vol. 125, pp. 309-310, 1930.",
     "smith_van_ness2005": "J.M. Smith, H.C. Van Ness, M.M. Abbott, Introduction to Chemical Engineering "
                           "Thermodynamics, 7th ed., McGraw-Hill, 2005 (Raoult's law, Clausius-Clapeyron).",
+    "aris1975": "R. Aris, The Mathematical Theory of Diffusion and Reaction in Permeable Catalysts, vol. 1, "
+                "Clarendon Press, Oxford, 1975.",
+    "bischoff1965": "K.B. Bischoff, \"Effectiveness factors for general reaction rate forms,\" AIChE J., vol. 11, "
+                    "pp. 351-355, 1965.",
+    "weisz_prater1954": "P.B. Weisz, C.D. Prater, \"Interpretation of measurements in experimental catalysis,\" "
+                        "Adv. Catal., vol. 6, pp. 143-196, 1954.",
     "zukauskas1972": "A. Zukauskas, \"Heat transfer from tubes in crossflow,\" Adv. Heat Transfer, vol. 8, "
                      "pp. 93-160, 1972.",
     "mathur1967": "S. Mathur, P.K. Tondon, S.C. Saxena, \"Thermal conductivity of binary, ternary and "

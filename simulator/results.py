@@ -113,7 +113,9 @@ class Result:
                 "closure": {"elements_relative": None, "energy_relative": None},
                 "max_compressibility_deviation": None, "events": self.events, "warnings": list(self.warnings),
                 "solver": self.solver_stats, "references": list(self.references), "versions": self.versions,
-                **self._steady_states_block(), **self.extra.get("summary_blocks", {}),
+                **self._steady_states_block(),
+                # only blocks a producer marks as meaningful for a failed run (a mechanism's null ignition)
+                **self.extra.get("failed_summary_blocks", {}),
             }
         return {
             "title": self.case.title,

@@ -29,7 +29,7 @@ NAN = float("nan")
 
 KEYS = {
     "": {"title", "source", "description", "thermo", "reactions", "feed", "tube", "bed", "heat",
-         "pressure_drop", "design", "solver", "assumptions", "uncertainty", "train", "model"},
+         "pressure_drop", "design", "solver", "assumptions", "uncertainty", "train", "model", "catalyst"},
     "thermo": {"species_file", "equation_of_state", "custom", "critical", "density", "density_at",
                "expansion_coefficient"},
     "thermo.custom.*": {"molar_mass", "cp", "enthalpy_of_formation", "standard_entropy",
@@ -287,6 +287,9 @@ def load_case_dict(raw, source_path="", case_dir=None):
     solver = _solver(ck, raw)
     thresholds = _thresholds(ck, raw)
     radial = radial_settings(ck, raw)                  # [model] and the radial [bed] keys
+    from simulator.case.catalyst_keys import read_catalyst
+
+    catalyst = read_catalyst(ck, raw, bed)             # [catalyst]: pellets (effectiveness factors)
     for i, entry in enumerate(raw.get("uncertainty", []) if isinstance(raw.get("uncertainty", []), list) else []):
         ck.keys(entry, KEYS["uncertainty.*"], f"uncertainty.{i}")
 
@@ -320,7 +323,7 @@ def load_case_dict(raw, source_path="", case_dir=None):
     return Case(title=title.strip(), source_path=source_path, thermo=thermo, reactions=tuple(reactions),
                 feed=feed, tube=tube, heat=heat, pressure_drop=pdrop, design=design, bed=bed, solver=solver,
                 assumptions=thresholds, species=tuple(species), raw=raw, source=str(raw.get("source", "")),
-                radial=radial)
+                radial=radial, catalyst=catalyst)
 
 
 def _check_sizes(ck, raw, feed, tube, bed, solver):

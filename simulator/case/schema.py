@@ -234,6 +234,7 @@ class Case:
     source: str = ""                     # source key of published data, if any
     train: tuple = ()                    # TrainBed entries of a reactor train (see simulator.case.train)
     radial: RadialSettings = field(default_factory=RadialSettings)   # [model] radial (simulator.case.radial_keys)
+    catalyst: object = None              # Catalyst of [catalyst] (simulator.case.catalyst_keys), or None
     mechanism: object = None             # MechanismSpec of a [mechanism] case (simulator.case.mechanism_keys)
 
 

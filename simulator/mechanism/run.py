@@ -122,6 +122,7 @@ def simulate_mechanism(case, length=None):
                   hot_spot=hot, design=design, closure=clos, warnings=tuple(notes), solver_stats=stats,
                   versions=versions(), references=tuple(references), events=events,
                   extra={"summary_blocks": blocks, "profile_species": profile_species,
+                         "failed_summary_blocks": blocks if status == "failed" else {},
                          "residence_time_s": tau, "timing": {"total_s": elapsed}})
 
 

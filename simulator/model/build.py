@@ -172,6 +172,12 @@ def build_model(case, species=None, constant_moles=False):
                         "transport data for liquids")
     if needs_viscosity:
         note = _viscosity_law(case, species, fp, x0)
+    pellet_at = 0
+    if getattr(case, "catalyst", None) is not None:     # [catalyst]: the pellet block at the end of fp
+        from simulator.model.pellet_block import pellet_block
+
+        pellet_at = fp.size
+        fp = np.concatenate([fp, pellet_block(case, names)])
     coefficient_at = 0
     if heat.coefficient is not None:      # U(z) from correlations: its block goes at the end of fp
         from simulator.model.heat.coefficient import coefficient_block
@@ -181,7 +187,7 @@ def build_model(case, species=None, constant_moles=False):
 
     ip = np.array([n, m, exchange.kernel_code, DP_CODES[case.pressure_drop.model],
                    FRICTION_CODES[case.pressure_drop.friction_correlation], eos, kmax,
-                   1 if constant_moles else 0, K.PHASE_LIQUID if liquid else K.PHASE_GAS, coefficient_at],
+                   1 if constant_moles else 0, K.PHASE_LIQUID if liquid else K.PHASE_GAS, coefficient_at, pellet_at],
                   dtype=np.int64)
     # the medium at z = 0; a counter-current medium's is the unknown of the shooting method
     # (simulator.solve.counter_current sets it), its inlet temperature at z = L stands in here

@@ -63,8 +63,9 @@ _colebrook = njit(cache=True)(colebrook_1939)
 _laminar = njit(cache=True)(friction_laminar)
 
 # integer parameters ip[...]
-I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN, I_PHASE, I_COEF = range(10)
-N_IP = 10
+I_N, I_M, I_HEAT, I_DP, I_FRICTION, I_EOS, I_KMAX, I_FROZEN, I_PHASE, I_COEF, I_PELLET = range(11)
+N_IP = 11
+# ip[I_PELLET]: offset in fp of the pellet block (simulator.model.pellet_block), 0 without [catalyst]
 # ip[I_COEF]: offset in fp of the heat-coefficient block (simulator.model.heat_coefficient), 0 for a typed U
 PHASE_GAS, PHASE_LIQUID = range(2)   # ip[I_PHASE]: the concentration closure (simulator.model.liquid)
 HEAT_ISOTHERMAL, HEAT_ADIABATIC, HEAT_UNIFORM, HEAT_FLOWING, HEAT_PROFILE = range(5)
@@ -489,6 +490,83 @@ def viscosity(T, F, fp):
 
 
 @njit(cache=True)
+def pellet_modulus(j, rate, F, inv, ctot, ip, fp, nu):
+    """Generalized modulus Phi of reaction j at the local bulk state, [-]; 0 where no pellet limit applies.
+
+    Phi = L sqrt((n + 1)/2 |nu_k| r_p / (D_e C_k)) (Bischoff 1965), arguments as :func:`effectiveness`.
+    """
+    o = ip[I_PELLET]
+    K = int(fp[o + 3])
+    per = o + 6 + K + 2 * j
+    k = int(fp[per])
+    if k < 0 or rate == 0.0:
+        return 0.0
+    C = max(F[k], 0.0) * inv * ctot
+    if C <= 0.0:
+        return 0.0
+    r_p = abs(nu[k, j] * rate) * fp[o + 2]
+    return fp[o] * math.sqrt(0.5 * (fp[per + 1] + 1.0) * r_p / (fp[o + 1] * C))
+
+
+@njit(cache=True)
+def effectiveness(j, rate, F, inv, ctot, ip, fp, nu):
+    r"""Effectiveness factor of reaction j at the local bulk state, [-] (see :mod:`simulator.model.pellet_block`).
+
+    Parameters
+    ----------
+    j : int
+        Reaction index, [-]
+    rate : float
+        Its rate per reactor volume without pellet limits, [mol/(m^3*s)]
+    F : ndarray
+        Molar flows, [mol/s]
+    inv, ctot : float
+        1/F_T [s/mol] and the total concentration [mol/m^3] (:func:`_mixture`)
+    ip, fp, nu : ndarray
+        Kernel parameters and the stoichiometric matrix
+
+    Returns
+    -------
+    eta : float
+        [-]; 1 where no pellet limit applies (``simulator.model.pellet_block``)
+    """
+    phi = pellet_modulus(j, rate, F, inv, ctot, ip, fp, nu)
+    if phi <= 0.0:
+        return 1.0
+    o = ip[I_PELLET]
+    K = int(fp[o + 3])
+    x = (math.log(phi) - fp[o + 4]) / fp[o + 5]
+    if x <= 0.0:
+        return fp[o + 6]
+    if x >= K - 1:
+        return 1.0 / phi
+    i = int(x)
+    w = x - i
+    return (1.0 - w) * fp[o + 6 + i] + w * fp[o + 7 + i]
+
+
+@njit(cache=True)
+def effectiveness_profile(zs, ys, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit):
+    """Effectiveness factor and generalized modulus of every reaction at every output point, (N, m, 2), [-]."""
+    N = zs.shape[0]
+    n = ip[I_N]
+    m = ip[I_M]
+    out = np.ones((N, m, 2))
+    if ip[I_PELLET] == 0:
+        return out
+    for q in range(N):
+        F = ys[q, :n]
+        T = ys[q, n]
+        P = max(ys[q, n + 1], fp[F_PMIN])
+        inv, ctot, Z = _mixture(T, P, F, ip, fp, crit)
+        for j in range(m):
+            r = reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit)
+            out[q, j, 0] = effectiveness(j, r, F, inv, ctot, ip, fp, nu)
+            out[q, j, 1] = pellet_modulus(j, r, F, inv, ctot, ip, fp, nu)
+    return out
+
+
+@njit(cache=True)
 def wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw):
     r"""Overall coefficient U and inside coefficient h_i at the local state, [W/(m^2*K)].
 
@@ -645,7 +723,10 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
     for i in range(n):
         dydz[i] = 0.0
     for j in range(m):
-        r = area * reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit)
+        r = reaction_rate(j, T, P, F, inv, ctot, ip, fp, nasa, nu, ordr, rexp, rx, ads, crit)
+        if ip[I_PELLET] != 0:
+            r *= effectiveness(j, r, F, inv, ctot, ip, fp, nu)
+        r *= area
         for i in range(n):
             v = nu[i, j]
             if v != 0.0:

@@ -52,7 +52,8 @@ CLOSURE_OK = 1e-6
 
 
 _ASSUMPTION_LABELS = {"isothermal": "Isothermal", "isobaric": "Isobaric", "ideal_gas": "Ideal gas",
-                      "constant_moles": "Constant moles", "one_dimensional": "One-dimensional tube"}
+                      "constant_moles": "Constant moles", "one_dimensional": "One-dimensional tube",
+                      "no_pellet_gradients": "No pellet gradients"}
 
 
 def _temperature_scale(case):

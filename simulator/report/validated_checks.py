@@ -302,6 +302,13 @@ CHECKS = ({'key': 'levenspiel1999',
   'compared': 'Weisz-Prater number by hand and its identity eta Phi^2 for a first-order reaction',
   'where': 'N_WP = r_obs L^2/(D_e c_s), by hand',
   'test': 'tests/test_pellet.py::test_weisz_prater_number_by_hand_and_first_order_identity'},
+ {'key': 'aris1975',
+  'citation': 'R. Aris, The Mathematical Theory of Diffusion and Reaction in Permeable Catalysts, vol. 1, '
+              'Clarendon Press, Oxford, 1975; E.W. Thiele, Ind. Eng. Chem. 31, 916-920, 1939',
+  'compared': 'Effectiveness factors of first-order reactions in three pellet shapes and of a zero-order '
+              'reaction in a slab against the closed forms',
+  'where': 'isothermal first-order effectiveness factors (closed forms, Aris-normalised)',
+  'test': 'tests/test_pellet_run.py::test_isothermal_first_order_tube_is_the_closed_form_with_eta_k'},
  {'key': 'cantera',
   'citation': "D.G. Goodwin, H.K. Moffat, I. Schoegl, R.L. Speth, B.W. Weber, 'Cantera: An object-oriented "
               "software toolkit for chemical kinetics, thermodynamics, and transport processes', version "

@@ -596,6 +596,9 @@ def _simulate(case, model=None, length=None):
     wall = _guarded(lambda: wall_along(model, zs, ys, tube.K), None) if case.heat.exchange else None
     if wall is not None and case.heat.coefficient is not None:
         notes += _guarded(lambda: validity_warnings(model, zs, ys), [])
+    pellet = None
+    if getattr(case, "catalyst", None) is not None and status != "failed":
+        pellet = _guarded(lambda: tube.K.effectiveness_profile(zs, np.ascontiguousarray(ys), *model.args), None)
     boiling, boiling_notes = _guarded(lambda: boiling_block(case, model.species.names, zs, ys[:, n], ys[:, n + 1],
                                                             ys[:, :n]), (None, []))
     notes += boiling_notes
@@ -618,8 +621,24 @@ def _simulate(case, model=None, length=None):
         extra={"adiabatic": rise_info, "viscosity": model.viscosity_note,
                "timing": {"main_integration_s": main_time, "total_s": elapsed},
                "critical_sources": dict(zip(model.species.names, model.critical_sources)), "wall": wall,
-               "nasa": model.args[2], **({"summary_blocks": {"boiling": boiling}} if boiling else {})},
+               "nasa": model.args[2], **_extra_blocks(case, zs, hot, boiling, pellet)},
     )
+
+
+def _extra_blocks(case, zs, hot, boiling, pellet):
+    """``summary_blocks`` and ``profile_columns`` of the boiling check and the pellets (where they apply)."""
+    blocks, columns = {}, []
+    if boiling:
+        blocks["boiling"] = boiling
+    if pellet is not None:
+        from simulator.model.pellet_block import pellet_summary
+
+        blocks["pellet"] = pellet_summary(case, zs, hot.get("position_m", math.nan), pellet)
+        columns = [(f"effectiveness_R{j + 1}", pellet[:, j, 0]) for j in range(pellet.shape[1])]
+    out = {"summary_blocks": blocks} if blocks else {}
+    if columns:
+        out["profile_columns"] = columns
+    return out
 
 
 def _hottest_wall_at(model, tube, z, y):
@@ -904,6 +923,8 @@ def references_used(case, model, compressibility_computed=False):
             keys.append("mathur1967")
     if c is not None and c.shell is not None:
         keys.append("zukauskas1972")
+    if getattr(case, "catalyst", None) is not None:
+        keys += ["bischoff1965", "aris1975", "weisz_prater1954"]
     if case.pressure_drop.viscosity_activation_energy == case.pressure_drop.viscosity_activation_energy:
         keys.append("andrade1930")
     if any(x.normal_boiling_point == x.normal_boiling_point for x in case.thermo.custom) \
