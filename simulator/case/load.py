@@ -366,10 +366,11 @@ def _thermo(ck, raw, case_dir):
             ck.fail(path, ": must be a table")
             continue
         ck.keys(entry, KEYS["thermo.custom.*"], path)
+        molar_mass = ck.quantity(entry, "molar_mass", "molar_mass", path, minimum=0.0)
         custom.append(CustomSpecies(
             name=name,
-            molar_mass=ck.quantity(entry, "molar_mass", "molar_mass", path, minimum=0.0),
-            cp=_custom_cp(ck, entry, path),
+            molar_mass=molar_mass,
+            cp=_custom_cp(ck, entry, path, molar_mass),
             enthalpy_of_formation=ck.quantity(entry, "enthalpy_of_formation", "molar_energy", path),
             standard_entropy=ck.quantity(entry, "standard_entropy", "molar_entropy", path, required=False),
             critical_temperature=ck.quantity(entry, "critical_temperature", "temperature", path,
@@ -401,8 +402,8 @@ def _thermo(ck, raw, case_dir):
                   expansion_coefficient=beta)
 
 
-def _custom_cp(ck, entry, path):
-    """cp of a custom species, [J/(mol*K)]: molar as written, or per mass times the molar mass."""
+def _custom_cp(ck, entry, path, M):
+    """cp of a custom species, [J/(mol*K)]: molar as written, or per mass times the molar mass M [kg/mol]."""
     written = entry.get("cp")
     try:
         per_mass = parse_quantity(written, "specific_heat_capacity", "") if isinstance(written, str) else None
@@ -410,9 +411,10 @@ def _custom_cp(ck, entry, path):
         per_mass = None
     if per_mass is None:
         return ck.quantity(entry, "cp", "molar_heat_capacity", path, minimum=0.0)
-    M = ck.quantity(entry, "molar_mass", "molar_mass", path, minimum=0.0)
     if not per_mass > 0.0:
         ck.fail(f"{path}.cp", f" = {written!r}: must be > 0.")
+        return NAN
+    if M != M:                             # the molar mass is already reported as a problem
         return NAN
     return ck.plausible(f"{path}.cp", written, per_mass * M, "J/(mol*K)")
 

@@ -611,6 +611,54 @@ def wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw):
     return hc.overall_coefficient(h_i, fp, o), h_i
 
 
+@njit(cache=True, inline="always")
+def wall_flux(z, T, P, Tc, F, ip, fp, nasa, mw, want_inside):
+    r"""Heat flux into the gas per inner-wall area and what gives it, at one state (exchange modes only).
+
+    Parameters
+    ----------
+    z, T, P, Tc : float
+        Position [m], gas temperature [K], pressure [Pa], the medium state [K]
+    F : ndarray
+        Molar flows, [mol/s]
+    ip, fp, nasa, mw : ndarray
+        Kernel parameters
+    want_inside : bool
+        Also evaluate h_i under a given heat flux (for the wall temperatures; the balances do not need it)
+
+    Returns
+    -------
+    q : float
+        Flux into the gas, [W/m^2]: U (T_far - T), or the given flux
+    U, h_i : float
+        Overall and inside coefficient, [W/(m^2*K)]; NaN where not defined (U under a given flux, h_i
+        with a typed U)
+    T_far, dT_far : float
+        Temperature on the far side of U (medium, or a given wall profile) [K] and its slope along a
+        given profile [K/m] (0 otherwise)
+    given_flux : bool
+        True for a given heat-flux profile
+
+    Notes
+    -----
+    One definition of the wall flux for the balances (:func:`rhs`) and the profile outputs
+    (:func:`wall_columns`). Under a given flux the direction of heating for h_i is the sign of q.
+    """
+    dT = 0.0
+    if ip[I_HEAT] == HEAT_PROFILE:   # a given wall temperature Tw(z) stands in for Tc, or a given heat flux
+        o = profile_tail(ip[I_N])
+        Tc, dT = given_profile(z, fp, o)
+        if fp[o] == PROFILE_HEAT_FLUX:
+            h_i = np.nan
+            if want_inside and ip[I_COEF] != 0:
+                h_i = wall_coefficient(T, P, T + Tc, F, ip, fp, nasa, mw)[1]
+            return Tc, np.nan, h_i, np.nan, 0.0, True
+    if ip[I_COEF] == 0:
+        return fp[F_U] * (Tc - T), fp[F_U], np.nan, Tc, dT, False
+    U, h_i = wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw)
+    return U * (Tc - T), U, h_i, Tc, dT, False
+
+
 @njit(cache=True)
 def wall_columns(zs, ys, ip, fp, nasa, mw):
     r"""Wall quantities at every output point, (N, 5): U, h_i, q'', T_wall_inner, T_wall_outer.
@@ -644,24 +692,11 @@ def wall_columns(zs, ys, ip, fp, nasa, mw):
     heat = ip[I_HEAT]
     if heat != HEAT_UNIFORM and heat != HEAT_FLOWING and heat != HEAT_PROFILE:
         return out
-    D = fp[F_DIAM]
     for k in range(N):
         y = ys[k]
-        F = y[:n]
         T = y[n]
-        P = max(y[n + 1], fp[F_PMIN])
-        Tc = y[n + 2]
-        given_flux = False
-        if heat == HEAT_PROFILE:
-            po = profile_tail(n)
-            Tc = given_profile(zs[k], fp, po)[0]
-            given_flux = fp[po] == PROFILE_HEAT_FLUX
-        U = fp[F_U]
-        h_i = np.nan
-        if ip[I_COEF] != 0:
-            U, h_i = wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw)
-        q = Tc if given_flux else U * (Tc - T)
-        out[k, 0] = np.nan if given_flux else U
+        q, U, h_i, _, _, _ = wall_flux(zs[k], T, max(y[n + 1], fp[F_PMIN]), y[n + 2], y[:n], ip, fp, nasa, mw, True)
+        out[k, 0] = U
         out[k, 1] = h_i
         out[k, 2] = q
         if ip[I_COEF] != 0:
@@ -732,20 +767,12 @@ def rhs(z, y, ip, fp, nasa, mw, nu, ordr, rexp, rx, ads, crit, dydz):
             if v != 0.0:
                 dydz[i] += v * r
     heat = ip[I_HEAT]
-    given_flux = False
     dTc = 0.0
-    if heat == HEAT_PROFILE:   # a given wall temperature Tw(z) stands in for Tc, or a given heat flux
-        o = profile_tail(n)
-        Tc, dTc = given_profile(z, fp, o)
-        given_flux = fp[o] == PROFILE_HEAT_FLUX
-    if heat == HEAT_UNIFORM or heat == HEAT_FLOWING or (heat == HEAT_PROFILE and not given_flux):
-        U = fp[F_U] if ip[I_COEF] == 0 else wall_coefficient(T, P, Tc, F, ip, fp, nasa, mw)[0]
-        qw = U * math.pi * fp[F_DIAM] * (Tc - T)
-    elif given_flux:
-        qw = Tc * math.pi * fp[F_DIAM]
-        dTc = 0.0
-    else:
-        qw = 0.0
+    qw = 0.0
+    if heat == HEAT_UNIFORM or heat == HEAT_FLOWING or heat == HEAT_PROFILE:
+        q, U, _, T_far, dTc, given_flux = wall_flux(z, T, P, Tc, F, ip, fp, nasa, mw, False)
+        # U pi D (T_far - T) in this order, as before the flux got one definition (same round-off)
+        qw = q * math.pi * fp[F_DIAM] if given_flux else U * math.pi * fp[F_DIAM] * (T_far - T)
     # pressure gradient
     dP = 0.0
     if ip[I_DP] != DP_NONE or fp[F_GSIN] != 0.0:

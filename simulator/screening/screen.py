@@ -96,7 +96,9 @@ class _Variants:
     """Builds and solves the case with one operating parameter changed (species data reused)."""
 
     def __init__(self, case, limit):
-        self.species = build_model(case).species
+        model = build_model(case)
+        self.species = model.species
+        self.coefficient = float(model.args[1][K.F_U])   # typed U, or U(z) from [heat.coefficient] at the feed
         self.case = dataclasses.replace(
             case, solver=dataclasses.replace(case.solver, **SOLVER),
             design=dataclasses.replace(case.design, temperature_limit=limit))
@@ -115,7 +117,7 @@ class _Variants:
         if name == "medium_temperature":
             return c.heat.medium_temperature
         if name == "overall_coefficient":
-            return representative_coefficient(c, self.species)
+            return self.coefficient
         if name == "mass_flow":
             return 1.0          # a factor on the feed flow
         raise KeyError(name)
@@ -496,13 +498,6 @@ def screen(case, n_coarse=21):
                        "adler_enig1964", "morbidelli_varma1988"],
         "_log": v.log,
     })
-
-
-def representative_coefficient(case, species=None):
-    """U the criteria take, [W/(m^2*K)]: the typed one, or U(z) from [heat.coefficient] at the feed state."""
-    if case.heat.coefficient is None:
-        return case.heat.overall_coefficient
-    return float(build_model(case, species=species).args[1][K.F_U])
 
 
 def coefficient_basis(case, result, U0):

@@ -284,7 +284,7 @@ def _transport_fits(species, thermo, quantity, remedy):
     if missing:
         raise ThermoError(f"no transport data for custom species {', '.join(missing)}; {remedy}")
     key = (species.species_path, tuple(species.names), quantity)
-    if key not in _VISCOSITY_FITS:
+    if key not in _TRANSPORT_FITS:
         import cantera as ct
 
         gas = _transport_solution(species, thermo)
@@ -296,13 +296,13 @@ def _transport_fits(species, thermo, quantity, remedy):
                               f"{remedy}") from err
         if any(len(r) != 5 for r in rows):
             raise ThermoError(f"Cantera's {quantity.replace('_', ' ')} fits are not of degree 4; {remedy}")
-        if len(_VISCOSITY_FITS) > 32:
-            _VISCOSITY_FITS.clear()
-        _VISCOSITY_FITS[key] = np.array(rows)
-    return _VISCOSITY_FITS[key].copy()
+        if len(_TRANSPORT_FITS) > 32:
+            _TRANSPORT_FITS.clear()
+        _TRANSPORT_FITS[key] = np.array(rows)
+    return _TRANSPORT_FITS[key].copy()
 
 
-_VISCOSITY_FITS = {}
+_TRANSPORT_FITS = {}
 _TRANSPORT = {}
 _TRANSPORT_LOCK = threading.Lock()
 
